@@ -1,0 +1,28 @@
+//! Command-line interface: argument parsing and the subcommands.
+//!
+//! Each subcommand lives in its own module with a clap `Args` struct and a
+//! `run(args) -> anyhow::Result<ExitCode>` function.
+
+use clap::{Parser, Subcommand};
+use std::process::ExitCode;
+
+/// Plan lighting and see how subjects render to the eye and to your camera.
+#[derive(Debug, Parser)]
+#[command(name = "lampwright", version, about, long_about = None)]
+pub struct Cli {
+    #[command(subcommand)]
+    pub command: Option<Command>,
+}
+
+/// The subcommands. With none, the window opens.
+#[derive(Debug, Subcommand)]
+pub enum Command {}
+
+/// Run the parsed command line.
+pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
+    match cli.command {
+        None => {
+            anyhow::bail!("the window is not built yet; see `lampwright --help` for the subcommands")
+        }
+    }
+}
