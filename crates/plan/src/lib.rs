@@ -1,1 +1,9 @@
-//! placeholder
+//! Lighting plans for Lampwright: the plan document, the built-in libraries,
+//! the evaluation engine, plan files and reports.
+//!
+//! The app edits a [`Plan`] and shows the [`Evaluation`] this crate computes
+//! from it; the command line does the same.
+
+pub mod model;
+
+pub use model::*;
