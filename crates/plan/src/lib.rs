@@ -4,6 +4,9 @@
 //! The app edits a [`Plan`] and shows the [`Evaluation`] this crate computes
 //! from it; the command line does the same.
 
+pub mod evaluation;
 pub mod model;
 
 pub use model::*;
+
+pub use evaluation::*;
