@@ -97,9 +97,103 @@ def gen_spaces(rng):
     )
 
 
+def sharma_pairs_from_package():
+    """The 34 pairs of Sharma, Wu & Dalal (2005) as shipped in the package's own tests.
+
+    The package's test module carries the full table but comments out pair 14
+    (exactly opposite hues, where its numpy arctan2 rounding picks the other
+    branch on some platforms); the commented row is read back in here so that
+    all 34 pairs are kept, in the published order.
+    """
+    import colour.difference.tests.test_delta_e as t
+
+    text = open(t.__file__, encoding="utf-8").read()
+    body = text[text.index("def test_delta_E_CIE2000_Sharma2004"):]
+    body = body[: body.index("np.testing.assert_allclose")]
+
+    def block(name):
+        start = body.index(f"{name} = np.array(")
+        end = body.index("\n        )\n", start)
+        return body[start:end]
+
+    number = r"-?\d+\.\d+"
+    lab_row = re.compile(rf"^\s*#?\s*\[({number}),\s*({number}),\s*({number})\],?\s*$", re.M)
+    lab_1 = [tuple(map(float, m)) for m in lab_row.findall(block("Lab_1"))]
+    lab_2 = [tuple(map(float, m)) for m in lab_row.findall(block("Lab_2"))]
+    de_row = re.compile(rf"^\s*#?\s*({number}),\s*$", re.M)
+    d_e = [float(m) for m in de_row.findall(block("d_E"))]
+    assert len(lab_1) == len(lab_2) == len(d_e) == 34, (len(lab_1), len(lab_2), len(d_e))
+    # Check the package itself reproduces the 33 pairs it tests (and so that the
+    # parse lined the rows up correctly).
+    got = colour.difference.delta_E_CIE2000(np.array(lab_1), np.array(lab_2))
+    for i in range(34):
+        if i != 13:
+            assert abs(got[i] - d_e[i]) < 1e-4, (i + 1, got[i], d_e[i])
+    return lab_1, lab_2, d_e
+
+
+def gen_sharma():
+    lab_1, lab_2, d_e = sharma_pairs_from_package()
+    rows = [[str(i + 1), *l1, *l2, f"{d:.4f}"] for i, (l1, l2, d) in enumerate(zip(lab_1, lab_2, d_e))]
+    write_csv(
+        "sharma2005_ciede2000.csv",
+        [
+            "CIEDE2000 test data: Sharma, G., Wu, W., Dalal, E. N. (2005), The CIEDE2000 color-difference",
+            "formula: implementation notes, supplementary test data, and mathematical observations,",
+            "Color Res. Appl. 30(1):21-30, DOI 10.1002/col.20070, Table 1 (all 34 pairs, dE00 to 4 decimals).",
+            "Copied from the test module colour/difference/tests/test_delta_e.py of colour-science, which",
+            "comments out pair 14; that row is restored from the comment. The published values are given",
+            "to 4 decimals and are compared to 5e-5.",
+        ],
+        ["pair", "L1", "a1", "b1", "L2", "a2", "b2", "de2000"],
+        rows,
+    )
+
+
+def random_lab(rng):
+    kind = rng.integers(0, 4)
+    if kind == 0:  # near neutral
+        return np.array([rng.uniform(0, 100), rng.normal(0, 1), rng.normal(0, 1)])
+    if kind == 1:  # dark
+        return np.array([rng.uniform(0, 10), rng.uniform(-20, 20), rng.uniform(-20, 20)])
+    return np.array([rng.uniform(0, 100), rng.uniform(-100, 100), rng.uniform(-100, 100)])
+
+
+def gen_delta_e(rng):
+    rows = []
+    for i in range(120):
+        lab1 = random_lab(rng)
+        if i % 3 == 0:  # small differences, the range that matters in practice
+            lab2 = lab1 + rng.normal(0, 1.5, 3)
+        elif i % 3 == 1:  # about-opposite hues
+            lab2 = np.array([rng.uniform(0, 100), -lab1[1] + rng.normal(0, 0.5), -lab1[2] + rng.normal(0, 0.5)])
+        else:
+            lab2 = random_lab(rng)
+        rows.append([
+            *lab1, *lab2,
+            colour.difference.delta_E_CIE1976(lab1, lab2),
+            colour.difference.delta_E_CIE1994(lab1, lab2, textiles=False),
+            colour.difference.delta_E_CIE1994(lab1, lab2, textiles=True),
+            colour.difference.delta_E_CIE2000(lab1, lab2),
+            colour.difference.delta_E_CIE2000(lab1, lab2, textiles=True),
+        ])
+    write_csv(
+        "delta_e_colour047.csv",
+        [
+            "Lab pairs -> delta_E_CIE1976, delta_E_CIE1994 (textiles False: graphic arts kL=1 K1=0.045",
+            "K2=0.015; True: kL=2 K1=0.048 K2=0.014; first argument is the reference), delta_E_CIE2000",
+            "(kL=kC=kH=1; textiles True: kL=2).",
+        ],
+        ["L1", "a1", "b1", "L2", "a2", "b2", "de76", "de94", "de94_textiles", "de2000", "de2000_kl2"],
+        rows,
+    )
+
+
 def main():
     rng = np.random.default_rng(20240615)
     gen_spaces(rng)
+    gen_sharma()
+    gen_delta_e(rng)
 
 
 if __name__ == "__main__":

@@ -1,1 +1,352 @@
-//! (in progress)
+//! Colour differences in CIELAB: ΔE*ab (CIE 1976), ΔE*94 (CIE 1994) and
+//! ΔE00 (CIEDE2000).
+//!
+//! All three take two [`Lab`] values computed against the same white and return
+//! a non-negative finite number for finite input. ΔE94 is asymmetric: its first
+//! argument is the reference (standard) colour, whose chroma sets the weights.
+//!
+//! # References
+//! - CIE 15:2018, *Colorimetry*, 4th ed., §8.3 (ΔE*ab, eq. 8.19; CIEDE2000, eqs. 8.25–8.43).
+//!   DOI 10.25039/TR.015.2018.
+//! - CIE 116-1995, *Industrial colour-difference evaluation* (ΔE*94).
+//! - CIE 142-2001, *Improvement to industrial colour-difference evaluation* (CIEDE2000).
+//! - Sharma, G., Wu, W., Dalal, E. N. (2005), "The CIEDE2000 color-difference formula:
+//!   implementation notes, supplementary test data, and mathematical observations",
+//!   *Color Res. Appl.* 30(1):21–30. DOI 10.1002/col.20070.
+
+use crate::error::{ColorError, Result};
+use crate::spaces::{Lab, hue_angle_deg};
+
+/// Hue differences within this many degrees of 180° count as exactly 180°.
+///
+/// At exactly 180° CIEDE2000's mean hue switches branch (Sharma et al. 2005,
+/// observation on the discontinuity; their test pair 14 sits on it). For two
+/// exactly opposite hues `atan2` may return angles whose difference is 180° ±
+/// a few ulp, which would pick the branch by rounding; treating such ties as
+/// 180° gives the answer of exact arithmetic, as tabulated by Sharma et al.
+const HUE_TIE_DEG: f64 = 1e-9;
+
+/// CIE 1976 colour difference ΔE*ab: the Euclidean distance in CIELAB.
+///
+/// # References
+/// CIE 15:2018 §8.3.1, eq. 8.19.
+#[must_use]
+pub fn delta_e_cie1976(lab1: Lab, lab2: Lab) -> f64 {
+    let (dl, da, db) = (lab2.l - lab1.l, lab2.a - lab1.a, lab2.b - lab1.b);
+    (dl * dl + da * da + db * db).sqrt()
+}
+
+/// Application constants of ΔE*94: kL, K1, K2 (kC = kH = 1, SL = 1).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Cie1994Weights {
+    k_l: f64,
+    k1: f64,
+    k2: f64,
+}
+
+impl Cie1994Weights {
+    /// Graphic arts: kL = 1, K1 = 0.045, K2 = 0.015 (CIE 116-1995).
+    pub const GRAPHIC_ARTS: Cie1994Weights = Cie1994Weights {
+        k_l: 1.0,
+        k1: 0.045,
+        k2: 0.015,
+    };
+    /// Textiles: kL = 2, K1 = 0.048, K2 = 0.014 (CIE 116-1995).
+    pub const TEXTILES: Cie1994Weights = Cie1994Weights {
+        k_l: 2.0,
+        k1: 0.048,
+        k2: 0.014,
+    };
+
+    /// Other constants; kL must be positive and K1, K2 non-negative and finite.
+    pub fn new(k_l: f64, k1: f64, k2: f64) -> Result<Cie1994Weights> {
+        if !(k_l.is_finite() && k_l > 0.0) {
+            return Err(ColorError::OutOfRange {
+                what: "ΔE94 kL",
+                value: k_l,
+                range: "> 0",
+            });
+        }
+        for (what, v) in [("ΔE94 K1", k1), ("ΔE94 K2", k2)] {
+            if !(v.is_finite() && v >= 0.0) {
+                return Err(ColorError::OutOfRange {
+                    what,
+                    value: v,
+                    range: "≥ 0",
+                });
+            }
+        }
+        Ok(Cie1994Weights { k_l, k1, k2 })
+    }
+}
+
+/// CIE 1994 colour difference ΔE*94 with the graphic-arts constants
+/// (kL = 1, K1 = 0.045, K2 = 0.015). `reference` is the standard colour:
+/// its chroma C*ab,1 sets SC = 1 + K1·C*ab,1 and SH = 1 + K2·C*ab,1, so the
+/// function is not symmetric.
+///
+/// # References
+/// CIE 116-1995; CIE 15:2018 §8.3.2.
+#[must_use]
+pub fn delta_e_cie1994(reference: Lab, sample: Lab) -> f64 {
+    delta_e_cie1994_weighted(reference, sample, Cie1994Weights::GRAPHIC_ARTS)
+}
+
+/// ΔE*94 with chosen application constants; see [`delta_e_cie1994`].
+#[must_use]
+pub fn delta_e_cie1994_weighted(reference: Lab, sample: Lab, weights: Cie1994Weights) -> f64 {
+    let c1 = reference.a.hypot(reference.b);
+    let c2 = sample.a.hypot(sample.b);
+    let dl = reference.l - sample.l;
+    let dc = c1 - c2;
+    let (da, db) = (reference.a - sample.a, reference.b - sample.b);
+    // ΔH² = Δa² + Δb² − ΔC², which rounding can push a hair below zero.
+    let dh2 = (da * da + db * db - dc * dc).max(0.0);
+    let sc = 1.0 + weights.k1 * c1;
+    let sh = 1.0 + weights.k2 * c1;
+    let tl = dl / weights.k_l;
+    let tc = dc / sc;
+    (tl * tl + tc * tc + dh2 / (sh * sh)).sqrt()
+}
+
+/// Parametric factors kL, kC, kH of CIEDE2000 (all 1 under the reference conditions).
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[allow(clippy::struct_field_names)] // kL, kC, kH are the published symbols.
+pub struct Ciede2000Weights {
+    k_l: f64,
+    k_c: f64,
+    k_h: f64,
+}
+
+impl Default for Ciede2000Weights {
+    fn default() -> Self {
+        Ciede2000Weights::REFERENCE
+    }
+}
+
+impl Ciede2000Weights {
+    /// kL = kC = kH = 1 (CIE 142-2001 reference conditions).
+    pub const REFERENCE: Ciede2000Weights = Ciede2000Weights {
+        k_l: 1.0,
+        k_c: 1.0,
+        k_h: 1.0,
+    };
+
+    /// Other factors; each must be positive and finite (common practice for
+    /// textiles is kL = 2).
+    pub fn new(k_l: f64, k_c: f64, k_h: f64) -> Result<Ciede2000Weights> {
+        for (what, v) in [
+            ("CIEDE2000 kL", k_l),
+            ("CIEDE2000 kC", k_c),
+            ("CIEDE2000 kH", k_h),
+        ] {
+            if !(v.is_finite() && v > 0.0) {
+                return Err(ColorError::OutOfRange {
+                    what,
+                    value: v,
+                    range: "> 0",
+                });
+            }
+        }
+        Ok(Ciede2000Weights { k_l, k_c, k_h })
+    }
+}
+
+/// CIEDE2000 colour difference ΔE00 with kL = kC = kH = 1. Symmetric in its
+/// arguments.
+///
+/// # References
+/// CIE 142-2001; CIE 15:2018 §8.3.3; Sharma, Wu & Dalal (2005),
+/// DOI 10.1002/col.20070 (eqs. 1–22 and their implementation notes, which this
+/// follows, including h′ = 0 for a′ = b = 0 and the zero-chroma rules for Δh′ and h̄′).
+#[must_use]
+pub fn delta_e_ciede2000(lab1: Lab, lab2: Lab) -> f64 {
+    delta_e_ciede2000_weighted(lab1, lab2, Ciede2000Weights::REFERENCE)
+}
+
+/// CIEDE2000 hue difference Δh′ and mean hue h̄′ in degrees from h′1, h′2 in
+/// [0, 360) and the product C′1·C′2 (Sharma et al. 2005, eqs. 10 and 14, with
+/// their zero-chroma rules: Δh′ = 0 and h̄′ = h′1 + h′2).
+fn hue_difference_and_mean(h1: f64, h2: f64, chroma_product: f64) -> (f64, f64) {
+    let h_sum = h1 + h2;
+    if chroma_product == 0.0 {
+        return (0.0, h_sum);
+    }
+    let d = h2 - h1;
+    if d.abs() <= 180.0 + HUE_TIE_DEG {
+        (d, f64::midpoint(h1, h2))
+    } else {
+        let dh = if d > 180.0 { d - 360.0 } else { d + 360.0 };
+        let mean = if h_sum < 360.0 {
+            f64::midpoint(h_sum, 360.0)
+        } else {
+            f64::midpoint(h_sum, -360.0)
+        };
+        (dh, mean)
+    }
+}
+
+/// CIEDE2000 with chosen parametric factors; see [`delta_e_ciede2000`].
+#[must_use]
+pub fn delta_e_ciede2000_weighted(lab1: Lab, lab2: Lab, weights: Ciede2000Weights) -> f64 {
+    const POW25_7: f64 = 6_103_515_625.0; // 25⁷
+    let c1 = lab1.a.hypot(lab1.b);
+    let c2 = lab2.a.hypot(lab2.b);
+    let c_bar7 = f64::midpoint(c1, c2).powi(7);
+    let g = 0.5 * (1.0 - (c_bar7 / (c_bar7 + POW25_7)).sqrt());
+    let a1p = (1.0 + g) * lab1.a;
+    let a2p = (1.0 + g) * lab2.a;
+    let c1p = a1p.hypot(lab1.b);
+    let c2p = a2p.hypot(lab2.b);
+    let hue = |ap: f64, b: f64| {
+        if ap == 0.0 && b == 0.0 {
+            0.0
+        } else {
+            hue_angle_deg(ap, b)
+        }
+    };
+    let h1p = hue(a1p, lab1.b);
+    let h2p = hue(a2p, lab2.b);
+
+    let dl = lab2.l - lab1.l;
+    let dc = c2p - c1p;
+    let chroma_product = c1p * c2p;
+    let (dhp, h_bar) = hue_difference_and_mean(h1p, h2p, chroma_product);
+    let d_big_h = 2.0 * chroma_product.sqrt() * (dhp.to_radians() / 2.0).sin();
+
+    let l_bar = f64::midpoint(lab1.l, lab2.l);
+    let c_bar_p = f64::midpoint(c1p, c2p);
+
+    let t = 1.0 - 0.17 * (h_bar - 30.0).to_radians().cos()
+        + 0.24 * (2.0 * h_bar).to_radians().cos()
+        + 0.32 * (3.0 * h_bar + 6.0).to_radians().cos()
+        - 0.20 * (4.0 * h_bar - 63.0).to_radians().cos();
+    let d_theta_deg = 30.0 * (-((h_bar - 275.0) / 25.0).powi(2)).exp();
+    let c_bar_p7 = c_bar_p.powi(7);
+    let r_c = 2.0 * (c_bar_p7 / (c_bar_p7 + POW25_7)).sqrt();
+    let l50 = (l_bar - 50.0).powi(2);
+    let s_l = 1.0 + 0.015 * l50 / (20.0 + l50).sqrt();
+    let s_c = 1.0 + 0.045 * c_bar_p;
+    let s_h = 1.0 + 0.015 * c_bar_p * t;
+    let r_t = -(2.0 * d_theta_deg).to_radians().sin() * r_c;
+
+    let tl = dl / (weights.k_l * s_l);
+    let tc = dc / (weights.k_c * s_c);
+    let th = d_big_h / (weights.k_h * s_h);
+    // The quadratic form is positive semi-definite (|R_T| ≤ 2); clamp rounding.
+    (tl * tl + tc * tc + th * th + r_t * tc * th)
+        .max(0.0)
+        .sqrt()
+}
+
+#[cfg(test)]
+#[allow(clippy::float_cmp)] // Exact zeros and identical results are the properties under test.
+mod tests {
+    use super::*;
+    use proptest::prelude::*;
+
+    fn lab() -> impl Strategy<Value = Lab> {
+        (0.0..100.0f64, -128.0..128.0f64, -128.0..128.0f64).prop_map(|(l, a, b)| Lab::new(l, a, b))
+    }
+
+    #[test]
+    fn cie1976_is_euclidean() {
+        // 3-4-12 → 13 (Pythagorean quadruple).
+        let d = delta_e_cie1976(Lab::new(50.0, 0.0, 0.0), Lab::new(53.0, 4.0, 12.0));
+        assert!((d - 13.0).abs() < 1e-12);
+    }
+
+    #[test]
+    fn cie1994_reduces_to_lightness_for_neutrals() {
+        // Two neutrals: C = 0, so SC = SH = 1 and ΔE94 = |ΔL| / kL (CIE 116-1995 definitions).
+        let (a, b) = (Lab::new(40.0, 0.0, 0.0), Lab::new(43.0, 0.0, 0.0));
+        assert!((delta_e_cie1994(a, b) - 3.0).abs() < 1e-12);
+        assert!((delta_e_cie1994_weighted(a, b, Cie1994Weights::TEXTILES) - 1.5).abs() < 1e-12);
+    }
+
+    #[test]
+    fn cie1994_is_asymmetric_by_design() {
+        let (r, s) = (Lab::new(50.0, 60.0, 0.0), Lab::new(50.0, 0.0, 0.0));
+        // Reference chroma 60: SC = 1 + 0.045·60 = 3.7 → ΔE94 = 60/3.7; swapped: SC = 1 → 60.
+        assert!((delta_e_cie1994(r, s) - 60.0 / 3.7).abs() < 1e-12);
+        assert!((delta_e_cie1994(s, r) - 60.0).abs() < 1e-12);
+    }
+
+    #[test]
+    fn ciede2000_weights_scale_lightness() {
+        // Lightness-only difference at L̄ = 50 (SL = 1): ΔE00 = |ΔL| / kL.
+        let (a, b) = (Lab::new(49.0, 0.0, 0.0), Lab::new(51.0, 0.0, 0.0));
+        assert!((delta_e_ciede2000(a, b) - 2.0).abs() < 1e-12);
+        let w = Ciede2000Weights::new(2.0, 1.0, 1.0).unwrap();
+        assert!((delta_e_ciede2000_weighted(a, b, w) - 1.0).abs() < 1e-12);
+    }
+
+    #[test]
+    fn invalid_weights_are_refused() {
+        assert!(Ciede2000Weights::new(0.0, 1.0, 1.0).is_err());
+        assert!(Ciede2000Weights::new(1.0, f64::NAN, 1.0).is_err());
+        assert!(Cie1994Weights::new(-1.0, 0.045, 0.015).is_err());
+        assert!(Cie1994Weights::new(1.0, 0.045, f64::INFINITY).is_err());
+        assert!(Cie1994Weights::new(1.0, 0.045, 0.015).is_ok());
+    }
+
+    #[test]
+    fn negative_zero_a_has_hue_zero() {
+        // Sharma et al. (2005) note: h′ = 0 when a′ = b = 0, whatever the sign of zero.
+        let d1 = delta_e_ciede2000(Lab::new(50.0, -0.0, 0.0), Lab::new(50.0, 2.0, 1.0));
+        let d2 = delta_e_ciede2000(Lab::new(50.0, 0.0, 0.0), Lab::new(50.0, 2.0, 1.0));
+        assert_eq!(d1, d2);
+    }
+
+    #[test]
+    fn opposite_hues_take_the_exact_arithmetic_branch() {
+        // Sharma et al. (2005) pair 14: h′1 ≈ 90.0345°, h′2 = h′1 + 180° exactly; the
+        // mean hue is (h′1 + h′2)/2 ≈ 180.03°. A difference rounded up by a few ulp
+        // must not move it to ≈ 0.03°.
+        let h1 = 90.034_511_938_077_54;
+        for h2 in [h1 + 180.0, h1 + 180.0 + 3e-14, h1 + 180.0 - 3e-14] {
+            let (dh, mean) = hue_difference_and_mean(h1, h2, 6.2);
+            assert!((mean - 180.0345).abs() < 1e-4, "{h2}: {mean}");
+            assert!((dh.abs() - 180.0).abs() < 1e-12);
+        }
+        // Clearly beyond 180° the other branch applies (eq. 14).
+        let (dh, mean) = hue_difference_and_mean(10.0, 200.0, 1.0);
+        assert!((dh + 170.0).abs() < 1e-12 && (mean - 285.0).abs() < 1e-12);
+        let (dh, mean) = hue_difference_and_mean(200.0, 350.0, 1.0);
+        assert!((dh - 150.0).abs() < 1e-12 && (mean - 275.0).abs() < 1e-12);
+        let (dh, mean) = hue_difference_and_mean(300.0, 100.0, 1.0);
+        assert!((dh - 160.0).abs() < 1e-12 && (mean - 20.0).abs() < 1e-12);
+        // Zero chroma: Δh′ = 0, h̄′ = h′1 + h′2.
+        assert_eq!(hue_difference_and_mean(0.0, 120.0, 0.0), (0.0, 120.0));
+    }
+
+    proptest! {
+        #[test]
+        fn identical_colours_have_zero_difference(a in lab()) {
+            prop_assert_eq!(delta_e_cie1976(a, a), 0.0);
+            prop_assert_eq!(delta_e_cie1994(a, a), 0.0);
+            prop_assert_eq!(delta_e_ciede2000(a, a), 0.0);
+        }
+
+        #[test]
+        fn ciede2000_is_symmetric(a in lab(), b in lab()) {
+            let (d1, d2) = (delta_e_ciede2000(a, b), delta_e_ciede2000(b, a));
+            prop_assert!((d1 - d2).abs() <= 1e-12 * d1.max(1.0), "{d1} vs {d2}");
+        }
+
+        #[test]
+        fn ciede2000_symmetric_at_opposite_hues(l in 0.0..100.0f64, c in 0.0..100.0f64, h in 0.0..360.0f64) {
+            // Exactly opposite hues sit on the mean-hue discontinuity.
+            let (s, co) = h.to_radians().sin_cos();
+            let (a, b) = (Lab::new(l, c * co, c * s), Lab::new(l, -c * co, -c * s));
+            prop_assert!((delta_e_ciede2000(a, b) - delta_e_ciede2000(b, a)).abs() < 1e-12);
+        }
+
+        #[test]
+        fn differences_are_finite_and_non_negative(a in lab(), b in lab()) {
+            for d in [delta_e_cie1976(a, b), delta_e_cie1994(a, b), delta_e_ciede2000(a, b)] {
+                prop_assert!(d.is_finite() && d >= 0.0);
+            }
+        }
+    }
+}

@@ -5,6 +5,10 @@
 //! with colour-science 0.4.7. Tolerances are per quantity and stated at the top.
 
 use lampwright_color::Xyz;
+use lampwright_color::delta_e::{
+    Cie1994Weights, Ciede2000Weights, delta_e_cie1976, delta_e_cie1994, delta_e_cie1994_weighted,
+    delta_e_ciede2000, delta_e_ciede2000_weighted,
+};
 use lampwright_color::spaces::{
     Lab, Luv, Uv1960, UvPrime, Xyy, uv_prime_from_xyz, uv1960_from_xyz,
 };
@@ -16,6 +20,11 @@ const TOL_CHROMATICITY: f64 = 1e-12;
 const TOL_LAB: f64 = 1e-9;
 /// Hue angle in degrees; loosened for near-neutral samples where atan2 is ill-conditioned.
 const TOL_HUE_DEG: f64 = 1e-7;
+
+/// Published ΔE00 values are rounded to 4 decimals: half a unit in the last place.
+const TOL_SHARMA_DE: f64 = 5e-5;
+/// ΔE of the same formula computed in double precision by the reference package.
+const TOL_DE: f64 = 1e-9;
 
 /// One fixture row, by column name.
 struct Row(HashMap<String, String>);
@@ -33,6 +42,9 @@ impl Row {
     }
     fn xyz(&self, x: &str, y: &str, z: &str) -> Xyz {
         Xyz::new(self.f(x), self.f(y), self.f(z))
+    }
+    fn lab(&self, l: &str, a: &str, b: &str) -> Lab {
+        Lab::new(self.f(l), self.f(a), self.f(b))
     }
 }
 
@@ -120,5 +132,64 @@ fn spaces_match_colour_science() {
         let lch = lab.to_lch();
         close(&format!("{tag} C*"), lch.c, row.f("C"), TOL_LAB);
         close(&format!("{tag} h"), lch.h_deg, row.f("h"), TOL_HUE_DEG);
+    }
+}
+
+#[test]
+fn ciede2000_sharma_2005_all_34_pairs() {
+    // Sharma, Wu & Dalal (2005), DOI 10.1002/col.20070, Table 1.
+    let rows = fixture("sharma2005_ciede2000.csv");
+    assert_eq!(rows.len(), 34, "the published table has 34 pairs");
+    for row in &rows {
+        let (lab1, lab2) = (row.lab("L1", "a1", "b1"), row.lab("L2", "a2", "b2"));
+        let want = row.f("de2000");
+        let tag = format!("Sharma pair {}", row.s("pair"));
+        close(&tag, delta_e_ciede2000(lab1, lab2), want, TOL_SHARMA_DE);
+        // The table is symmetric in use: swapping the pair gives the same value.
+        close(
+            &format!("{tag} swapped"),
+            delta_e_ciede2000(lab2, lab1),
+            want,
+            TOL_SHARMA_DE,
+        );
+    }
+}
+
+#[test]
+fn delta_e_match_colour_science() {
+    let textiles_2000 = Ciede2000Weights::new(2.0, 1.0, 1.0).unwrap();
+    for (i, row) in fixture("delta_e_colour047.csv").iter().enumerate() {
+        let (lab1, lab2) = (row.lab("L1", "a1", "b1"), row.lab("L2", "a2", "b2"));
+        let tag = format!("row {i}");
+        close(
+            &format!("{tag} dE76"),
+            delta_e_cie1976(lab1, lab2),
+            row.f("de76"),
+            TOL_DE,
+        );
+        close(
+            &format!("{tag} dE94"),
+            delta_e_cie1994(lab1, lab2),
+            row.f("de94"),
+            TOL_DE,
+        );
+        close(
+            &format!("{tag} dE94 textiles"),
+            delta_e_cie1994_weighted(lab1, lab2, Cie1994Weights::TEXTILES),
+            row.f("de94_textiles"),
+            TOL_DE,
+        );
+        close(
+            &format!("{tag} dE00"),
+            delta_e_ciede2000(lab1, lab2),
+            row.f("de2000"),
+            TOL_DE,
+        );
+        close(
+            &format!("{tag} dE00 kL=2"),
+            delta_e_ciede2000_weighted(lab1, lab2, textiles_2000),
+            row.f("de2000_kl2"),
+            TOL_DE,
+        );
     }
 }
