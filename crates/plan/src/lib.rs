@@ -4,9 +4,12 @@
 //! The app edits a [`Plan`] and shows the [`Evaluation`] this crate computes
 //! from it; the command line does the same.
 
+mod error;
 pub mod evaluation;
 pub mod model;
 
 pub use model::*;
 
 pub use evaluation::*;
+
+pub use error::{LibraryKind, PlanError, Result};
