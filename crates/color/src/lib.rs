@@ -22,6 +22,7 @@ pub mod photometry;
 pub mod resample;
 pub mod rgb;
 pub mod spaces;
+mod spectral_weights;
 pub mod spectrum;
 pub mod ssi;
 pub mod table;
