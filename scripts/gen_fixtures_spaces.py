@@ -189,11 +189,59 @@ def gen_delta_e(rng):
     )
 
 
+CATS = {"VonKries": "Von Kries", "Bradford": "Bradford", "Cat02": "CAT02", "Cat16": "CAT16"}
+
+
+def gen_adaptation(rng):
+    from colour.adaptation import (
+        CHROMATIC_ADAPTATION_TRANSFORMS,
+        chromatic_adaptation_VonKries,
+        chromatic_adaptation_Zhai2018,
+        matrix_chromatic_adaptation_VonKries,
+    )
+
+    rows = []
+    # The cone matrices themselves: src/dst columns empty, kind "cone_matrix".
+    for ours, theirs in CATS.items():
+        m = CHROMATIC_ADAPTATION_TRANSFORMS[theirs]
+        rows.append(["cone_matrix", ours, "", "", "1", *([0.0] * 6), *m.ravel(), *([0.0] * 6)])
+    pairs = [("D65", "D50"), ("D50", "D65"), ("A", "D65"), ("D65", "A"), ("FL2", "D50"), ("E", "D65")]
+    for ours, theirs in CATS.items():
+        for src, dst in pairs:
+            w_src, w_dst = WHITES[src], WHITES[dst]
+            m = matrix_chromatic_adaptation_VonKries(w_src, w_dst, theirs)
+            for xyz in random_xyz(rng, w_src, 3):
+                # colour-science's von Kries function works on a Y = 1 scale.
+                out = chromatic_adaptation_VonKries(xyz / 100, w_src / 100, w_dst / 100, theirs) * 100
+                rows.append(["full", ours, src, dst, "1", *w_src, *w_dst, *m.ravel(), *xyz, *out])
+            if theirs in ("CAT02", "CAT16"):
+                for d in (0.0, 0.5, 0.8, 1.0):
+                    xyz = random_xyz(rng, w_src, 1)[0]
+                    # Two-step form with D = 1 on the destination side and the destination as
+                    # the reference white: equals the one-step partial adaptation (whites at Y = 100).
+                    out = chromatic_adaptation_Zhai2018(xyz, w_src, w_dst, d, 1.0, w_dst, theirs)
+                    rows.append(["partial", ours, src, dst, repr(d), *w_src, *w_dst, *([0.0] * 9), *xyz, *out])
+    write_csv(
+        "adaptation_colour047.csv",
+        [
+            "Chromatic adaptation. kind=cone_matrix: CHROMATIC_ADAPTATION_TRANSFORMS (m11..m33).",
+            "kind=full: matrix_chromatic_adaptation_VonKries(src, dst, transform) (m11..m33) and",
+            "chromatic_adaptation_VonKries on XYZ (Y = 100 scale here, divided by 100 for the package).",
+            "kind=partial: chromatic_adaptation_Zhai2018(XYZ, src, dst, D_b=D, D_d=1, XYZ_wo=dst) for",
+            "CAT02 and CAT16 (matrix columns unused, zero). Whites: CIE 15 2 degree chromaticities, Y = 100.",
+        ],
+        ["kind", "cat", "src", "dst", "D", "Xs", "Ys", "Zs", "Xd", "Yd", "Zd",
+         "m11", "m12", "m13", "m21", "m22", "m23", "m31", "m32", "m33", "X", "Y", "Z", "Xa", "Ya", "Za"],
+        rows,
+    )
+
+
 def main():
     rng = np.random.default_rng(20240615)
     gen_spaces(rng)
     gen_sharma()
     gen_delta_e(rng)
+    gen_adaptation(rng)
 
 
 if __name__ == "__main__":

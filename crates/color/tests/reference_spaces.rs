@@ -5,6 +5,9 @@
 //! with colour-science 0.4.7. Tolerances are per quantity and stated at the top.
 
 use lampwright_color::Xyz;
+use lampwright_color::adaptation::{
+    Cat, apply_matrix, chromatic_adaptation_matrix, chromatic_adaptation_matrix_partial,
+};
 use lampwright_color::delta_e::{
     Cie1994Weights, Ciede2000Weights, delta_e_cie1976, delta_e_cie1994, delta_e_cie1994_weighted,
     delta_e_ciede2000, delta_e_ciede2000_weighted,
@@ -25,6 +28,11 @@ const TOL_HUE_DEG: f64 = 1e-7;
 const TOL_SHARMA_DE: f64 = 5e-5;
 /// ΔE of the same formula computed in double precision by the reference package.
 const TOL_DE: f64 = 1e-9;
+
+/// Adaptation matrices: same algebra, double precision.
+const TOL_CAT_MATRIX: f64 = 1e-12;
+/// Adapted XYZ on the Y = 100 scale.
+const TOL_CAT_XYZ: f64 = 1e-9;
 
 /// One fixture row, by column name.
 struct Row(HashMap<String, String>);
@@ -192,4 +200,72 @@ fn delta_e_match_colour_science() {
             TOL_DE,
         );
     }
+}
+
+fn cat_named(name: &str) -> Cat {
+    match name {
+        "VonKries" => Cat::VonKries,
+        "Bradford" => Cat::Bradford,
+        "Cat02" => Cat::Cat02,
+        "Cat16" => Cat::Cat16,
+        other => panic!("unknown CAT {other}"),
+    }
+}
+
+#[test]
+fn adaptation_matches_colour_science() {
+    let mut counts = HashMap::new();
+    for (i, row) in fixture("adaptation_colour047.csv").iter().enumerate() {
+        let cat = cat_named(row.s("cat"));
+        let kind = row.s("kind");
+        *counts.entry(kind.to_string()).or_insert(0) += 1;
+        let tag = format!(
+            "row {i} {kind} {} {}→{}",
+            row.s("cat"),
+            row.s("src"),
+            row.s("dst")
+        );
+        let want_m = |r: usize, c: usize| row.f(&format!("m{}{}", r + 1, c + 1));
+        match kind {
+            "cone_matrix" => {
+                let m = cat.matrix();
+                for r in 0..3 {
+                    for c in 0..3 {
+                        // Transcribed constants: must be identical to the package's.
+                        close(&format!("{tag} m{r}{c}"), m[(r, c)], want_m(r, c), 0.0);
+                    }
+                }
+            }
+            "full" | "partial" => {
+                let src = row.xyz("Xs", "Ys", "Zs");
+                let dst = row.xyz("Xd", "Yd", "Zd");
+                let m = if kind == "full" {
+                    let m = chromatic_adaptation_matrix(cat, src, dst).unwrap();
+                    for r in 0..3 {
+                        for c in 0..3 {
+                            close(
+                                &format!("{tag} m{r}{c}"),
+                                m[(r, c)],
+                                want_m(r, c),
+                                TOL_CAT_MATRIX,
+                            );
+                        }
+                    }
+                    m
+                } else {
+                    chromatic_adaptation_matrix_partial(cat, src, dst, row.f("D")).unwrap()
+                };
+                let out = apply_matrix(&m, row.xyz("X", "Y", "Z"));
+                close(&format!("{tag} X"), out.x, row.f("Xa"), TOL_CAT_XYZ);
+                close(&format!("{tag} Y"), out.y, row.f("Ya"), TOL_CAT_XYZ);
+                close(&format!("{tag} Z"), out.z, row.f("Za"), TOL_CAT_XYZ);
+            }
+            other => panic!("unknown kind {other}"),
+        }
+    }
+    assert_eq!(counts.get("cone_matrix"), Some(&4));
+    assert!(
+        counts.get("full").copied().unwrap_or(0) >= 48
+            && counts.get("partial").copied().unwrap_or(0) >= 32
+    );
 }
