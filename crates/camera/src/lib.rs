@@ -1,1 +1,31 @@
-//! placeholder
+//! Camera simulation for Lampwright: how a camera, rather than an eye, records
+//! subjects under a lighting plan.
+//!
+//! The chain, each step in its own module:
+//! 1. [`sensitivities`]: the camera's three spectral sensitivity curves;
+//! 2. [`raw`]: the raw signal `Σ light × reflectance × sensitivity`, exposed so
+//!    the perfect white gives G = 1;
+//! 3. [`white_balance`]: channel gains from a preset, a Kelvin setting, a grey
+//!    card or an automatic estimate;
+//! 4. [`correction`]: the colour-correction matrix (camera RGB → XYZ, D65 white),
+//!    fitted by [`fit_linear`], [`fit_de2000`] or [`root_poly`] on a [`training`] set;
+//! 5. [`quality`]: Luther residual and Vora–Trussell µ-factor.
+//!
+//! No user interface lives here; the crate depends on `lampwright-color` only.
+
+mod error;
+
+pub mod correction;
+pub mod fit_de2000;
+pub mod fit_linear;
+pub mod quality;
+pub mod raw;
+pub mod root_poly;
+pub mod sensitivities;
+pub mod training;
+
+pub use correction::{ColorCorrection, DeltaEStats, FitData, FitMethod, fit_color_correction};
+pub use error::{CameraError, Result};
+pub use raw::{SceneResponse, SubjectSignal, raw_signal};
+pub use sensitivities::CameraSensitivities;
+pub use training::TrainingSet;

@@ -1,0 +1,210 @@
+//! Raw camera signal: what each channel collects from a lit surface.
+//!
+//! For a surface of reflectance ρ(λ) under a light S(λ), channel `c` collects
+//! `Σ_λ S(λ) ρ(λ) s̄_c(λ) Δλ` (Δλ = 1 nm, 360–830 nm). Exposure is normalised
+//! so that the perfect reflecting diffuser under the scene light gives G = 1,
+//! as if the camera were exposed for a white card; the light is whatever reaches
+//! the subject (lamps already mixed, gels already applied).
+//!
+//! The eye's side is computed in the same pass: XYZ with the perfect
+//! reflecting diffuser at Y = 1 (CIE 15:2018 eq. 7.1 scaled by 1/100).
+//!
+//! # References
+//! - CIE 15:2018, *Colorimetry*, 4th ed., §7.1 (tristimulus summation).
+//! - ISO 17321-1:2012, *Graphic technology and photography — Colour
+//!   characterisation of digital still cameras (DSCs) — Part 1*, §4 (camera
+//!   response as the integral of scene radiance and channel sensitivity).
+
+use crate::error::{CameraError, Result};
+use crate::fit_linear::is_positive;
+use crate::sensitivities::CameraSensitivities;
+use lampwright_color::observer::Observer;
+use lampwright_color::{GRID_LEN, Reflectance, RelativeSpd, Xyz};
+
+/// Raw linear camera signal of one subject, `[R, G, B]`, with the perfect
+/// white under the scene light at G = 1; and the eye's XYZ of the same subject
+/// as lit (perfect white at Y = 1).
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct SubjectSignal {
+    /// Camera raw `[R, G, B]` (before white balance).
+    pub raw_rgb: [f64; 3],
+    /// CIE XYZ of the subject as lit, perfect white at Y = 1.
+    pub xyz: Xyz,
+}
+
+/// One camera and one observer under one light, ready to integrate many subjects.
+///
+/// Building it multiplies the light into the six curves once, so each subject
+/// then costs one pass over the grid.
+#[derive(Debug, Clone)]
+pub struct SceneResponse {
+    /// Per grid wavelength: `S·r̄/k_g, S·ḡ/k_g, S·b̄/k_g, S·x̄/k_y, S·ȳ/k_y, S·z̄/k_y`.
+    weights: Box<[[f64; 6]]>,
+    white: SubjectSignal,
+}
+
+impl SceneResponse {
+    /// Prepare `camera` and `observer` under `light` (relative SPD at the subject).
+    ///
+    /// Refuses a light that cannot support colorimetry and a camera whose green
+    /// channel collects nothing under it (exposure could not be set).
+    pub fn new(
+        camera: &CameraSensitivities,
+        light: &RelativeSpd,
+        observer: &Observer,
+    ) -> Result<SceneResponse> {
+        light.check_colorimetric("scene light")?;
+        let l = light.values();
+        let [r, g, b] = camera.channels().map(|c| c.values());
+        let k_g: f64 = (0..GRID_LEN).map(|i| l[i] * g[i]).sum();
+        let k_y: f64 = (0..GRID_LEN).map(|i| l[i] * observer.y_bar[i]).sum();
+        if !is_positive(k_g) {
+            return Err(CameraError::BlindCamera {
+                camera: camera.name.clone(),
+                reason: "its green channel collects nothing under this light".into(),
+            });
+        }
+        if !is_positive(k_y) {
+            return Err(CameraError::InvalidInput(
+                "the scene light has no visible power".into(),
+            ));
+        }
+        let mut weights = vec![[0.0; 6]; GRID_LEN].into_boxed_slice();
+        for (i, w) in weights.iter_mut().enumerate() {
+            *w = [
+                l[i] * r[i] / k_g,
+                l[i] * g[i] / k_g,
+                l[i] * b[i] / k_g,
+                l[i] * observer.x_bar[i] / k_y,
+                l[i] * observer.y_bar[i] / k_y,
+                l[i] * observer.z_bar[i] / k_y,
+            ];
+        }
+        let mut response = SceneResponse {
+            weights,
+            white: SubjectSignal::default(),
+        };
+        response.white = response.integrate(&[1.0; GRID_LEN]);
+        Ok(response)
+    }
+
+    fn integrate(&self, reflectance: &[f64; GRID_LEN]) -> SubjectSignal {
+        let mut acc = [0.0; 6];
+        for (w, rho) in self.weights.iter().zip(reflectance.iter()) {
+            for k in 0..6 {
+                acc[k] += w[k] * rho;
+            }
+        }
+        SubjectSignal {
+            raw_rgb: [acc[0], acc[1], acc[2]],
+            xyz: Xyz::new(acc[3], acc[4], acc[5]),
+        }
+    }
+
+    /// Raw signal and XYZ of one subject.
+    #[must_use]
+    pub fn subject(&self, reflectance: &Reflectance) -> SubjectSignal {
+        self.integrate(reflectance.values())
+    }
+
+    /// Raw signal and XYZ of each subject, in order.
+    #[must_use]
+    pub fn subjects(&self, reflectances: &[Reflectance]) -> Vec<SubjectSignal> {
+        reflectances.iter().map(|r| self.subject(r)).collect()
+    }
+
+    /// The perfect reflecting diffuser: raw `[R, 1, B]` and XYZ with Y = 1.
+    #[must_use]
+    pub fn white(&self) -> SubjectSignal {
+        self.white
+    }
+}
+
+/// Raw signal `[R, G, B]` of one surface under one light, perfect white at G = 1.
+pub fn raw_signal(
+    camera: &CameraSensitivities,
+    light: &RelativeSpd,
+    reflectance: &Reflectance,
+) -> Result<[f64; 3]> {
+    Ok(SceneResponse::new(camera, light, Observer::cie1931_2deg())?
+        .subject(reflectance)
+        .raw_rgb)
+}
+
+/// Unnormalised camera response to a light seen directly (or on a perfect
+/// white): `Σ S(λ) s̄_c(λ)` per channel. Only ratios between channels matter.
+#[must_use]
+pub fn raw_of_light(camera: &CameraSensitivities, light: &RelativeSpd) -> [f64; 3] {
+    let l = light.values();
+    camera
+        .channels()
+        .map(|c| c.values().iter().zip(l.iter()).map(|(s, e)| s * e).sum())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use lampwright_color::illuminant::StandardIlluminant;
+    use lampwright_color::tristimulus::xyz_of_object;
+
+    #[test]
+    fn perfect_white_has_g_and_y_one() {
+        let cam = CameraSensitivities::demo_cameras().unwrap()[0].clone();
+        for ill in [
+            StandardIlluminant::A,
+            StandardIlluminant::D65,
+            StandardIlluminant::F(11),
+        ] {
+            let s =
+                SceneResponse::new(&cam, &ill.spd().unwrap(), Observer::cie1931_2deg()).unwrap();
+            assert!((s.white().raw_rgb[1] - 1.0).abs() < 1e-12);
+            assert!((s.white().xyz.y - 1.0).abs() < 1e-12);
+        }
+    }
+
+    #[test]
+    fn xyz_agrees_with_colour_crate() {
+        // The eye's side must equal CIE 15 relative XYZ (colour crate) divided by 100.
+        let cam = CameraSensitivities::colorimetric().unwrap();
+        let light = StandardIlluminant::F(2).spd().unwrap();
+        let refl = Reflectance::from_fn(|wl| 0.2 + 0.6 * ((wl - 360.0) / 470.0));
+        let s = SceneResponse::new(&cam, &light, Observer::cie1931_2deg())
+            .unwrap()
+            .subject(&refl);
+        let x = xyz_of_object(&light, &refl, Observer::cie1931_2deg(), "t").unwrap();
+        for (a, b) in s.xyz.to_array().iter().zip(x.to_array()) {
+            assert!((a - b / 100.0).abs() < 1e-12);
+        }
+    }
+
+    #[test]
+    fn raw_is_linear_in_reflectance_and_independent_of_light_level() {
+        let cam = CameraSensitivities::demo_cameras().unwrap()[2].clone();
+        let light = StandardIlluminant::A.spd().unwrap();
+        let refl = Reflectance::from_fn(|wl| if wl > 550.0 { 0.7 } else { 0.1 });
+        let a = raw_signal(&cam, &light, &refl).unwrap();
+        let b = raw_signal(&cam, &light.scaled(37.0), &refl.scaled(0.5)).unwrap();
+        for k in 0..3 {
+            assert!((a[k] * 0.5 - b[k]).abs() < 1e-12);
+        }
+    }
+
+    #[test]
+    fn dark_light_is_refused() {
+        let cam = CameraSensitivities::colorimetric().unwrap();
+        assert!(
+            SceneResponse::new(
+                &cam,
+                &RelativeSpd::from_fn(|_| 0.0),
+                Observer::cie1931_2deg()
+            )
+            .is_err()
+        );
+        // Light only beyond the reach of a green channel that stops at 450 nm.
+        let short = lampwright_color::Sensitivity::from_fn(|wl| if wl < 450.0 { 1.0 } else { 0.0 });
+        let odd = CameraSensitivities::new("odd", cam.r.clone(), short, cam.b.clone()).unwrap();
+        let deep_red = RelativeSpd::from_fn(|wl| if wl > 800.0 { 1.0 } else { 0.0 });
+        let err = SceneResponse::new(&odd, &deep_red, Observer::cie1931_2deg()).unwrap_err();
+        assert!(matches!(err, CameraError::BlindCamera { .. }), "{err}");
+    }
+}
