@@ -84,6 +84,9 @@ pub(super) struct Cell<'a> {
 /// inside stands for one quote). Trailing empty cells (spreadsheets write
 /// trailing separators) are dropped.
 pub(super) fn split(line: &str, sep: Separator) -> Result<Vec<Cell<'_>>, String> {
+    if line.bytes().filter(|b| *b == b'"').count() % 2 == 1 {
+        return Err("a quote is opened but never closed".into());
+    }
     let mut raw_cells = Vec::new();
     match sep.char() {
         Some(sep_char) => {

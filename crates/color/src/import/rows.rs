@@ -217,7 +217,9 @@ fn read_row(
             ),
             None => format!("line {} has {}", layout.separator_line, layout.cells),
         };
-        let mut message = format!("row has {} cells but {expected}", cells.len());
+        let count = cells.len();
+        let noun = if count == 1 { "cell" } else { "cells" };
+        let mut message = format!("row has {count} {noun} but {expected}");
         if cells.len() < layout.cells {
             message.push_str(": missing values");
         } else if layout.separator == Separator::Comma {
