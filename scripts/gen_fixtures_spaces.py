@@ -236,12 +236,49 @@ def gen_adaptation(rng):
     )
 
 
+def gen_cam02(rng):
+    from colour.appearance import VIEWING_CONDITIONS_CIECAM02 as SURROUNDS
+
+    ccs10 = colour.CCS_ILLUMINANTS["CIE 1964 10 Degree Standard Observer"]
+    whites = dict(WHITES)
+    whites["D65_10"] = colour.xy_to_XYZ(ccs10["D65"]) * 100
+    whites["A_10"] = colour.xy_to_XYZ(ccs10["A"]) * 100
+    conditions = {
+        # name: (L_A cd/m2, Y_b, surround, discount_illuminant)
+        "tm30": (100.0, 20.0, "Average", True),
+        "average": (318.31, 20.0, "Average", False),
+        "dim": (20.0, 10.0, "Dim", False),
+        "dark": (4.0, 20.0, "Dark", False),
+    }
+    rows = []
+    for wname, white in whites.items():
+        for cname, (l_a, y_b, surround, discount) in conditions.items():
+            for xyz in random_xyz(rng, white, 6):
+                spec = colour.XYZ_to_CIECAM02(xyz, white, l_a, y_b, SURROUNDS[surround], discount)
+                jab = colour.JMh_CIECAM02_to_CAM02UCS(np.array([spec.J, spec.M, spec.h]))
+                rows.append([wname, cname, *white, *xyz, spec.J, spec.C, spec.h, spec.M, spec.s, spec.Q, spec.H, *jab])
+    write_csv(
+        "cam02_colour047.csv",
+        [
+            "CIECAM02 forward (XYZ_to_CIECAM02) and CAM02-UCS (JMh_CIECAM02_to_CAM02UCS). Conditions:",
+            "tm30 = L_A 100, Y_b 20, average, discount illuminant (as in colour.quality.cfi2017);",
+            "average = L_A 318.31, Y_b 20; dim = L_A 20, Y_b 10; dark = L_A 4, Y_b 20 (D from F and L_A).",
+            "Whites: CIE 15 chromaticities (2 degree, and 10 degree for *_10), Y = 100.",
+            "Hue quadrature H: the package splits the last hue segment at 360 degrees (e = 0.856), unlike",
+            "CIE 159:2004 Table 2.2; compare H only for 20.14 <= h < 237.53.",
+        ],
+        ["white", "conditions", "Xw", "Yw", "Zw", "X", "Y", "Z", "J", "C", "h", "M", "s", "Q", "H", "Jp", "ap", "bp"],
+        rows,
+    )
+
+
 def main():
     rng = np.random.default_rng(20240615)
     gen_spaces(rng)
     gen_sharma()
     gen_delta_e(rng)
     gen_adaptation(rng)
+    gen_cam02(rng)
 
 
 if __name__ == "__main__":

@@ -8,6 +8,7 @@ use lampwright_color::Xyz;
 use lampwright_color::adaptation::{
     Cat, apply_matrix, chromatic_adaptation_matrix, chromatic_adaptation_matrix_partial,
 };
+use lampwright_color::cam02::{Cam02Ucs, Surround, ViewingConditions, cam02_ucs_tm30};
 use lampwright_color::delta_e::{
     Cie1994Weights, Ciede2000Weights, delta_e_cie1976, delta_e_cie1994, delta_e_cie1994_weighted,
     delta_e_ciede2000, delta_e_ciede2000_weighted,
@@ -33,6 +34,11 @@ const TOL_DE: f64 = 1e-9;
 const TOL_CAT_MATRIX: f64 = 1e-12;
 /// Adapted XYZ on the Y = 100 scale.
 const TOL_CAT_XYZ: f64 = 1e-9;
+
+/// CIECAM02 correlates (J, C, M, s, Q, H, J′, a′, b′): same equations in double precision.
+const TOL_CAM: f64 = 1e-9;
+/// CIECAM02 hue angle in degrees; loosened for near-neutral samples where atan2 is ill-conditioned.
+const TOL_CAM_HUE_DEG: f64 = 1e-6;
 
 /// One fixture row, by column name.
 struct Row(HashMap<String, String>);
@@ -267,5 +273,59 @@ fn adaptation_matches_colour_science() {
     assert!(
         counts.get("full").copied().unwrap_or(0) >= 48
             && counts.get("partial").copied().unwrap_or(0) >= 32
+    );
+}
+
+fn conditions_named(name: &str) -> ViewingConditions {
+    let vc = |la_cd_m2, yb, surround| ViewingConditions {
+        la_cd_m2,
+        yb,
+        surround,
+        discount_illuminant: false,
+    };
+    match name {
+        "tm30" => ViewingConditions::TM30,
+        "average" => vc(318.31, 20.0, Surround::AVERAGE),
+        "dim" => vc(20.0, 10.0, Surround::DIM),
+        "dark" => vc(4.0, 20.0, Surround::DARK),
+        other => panic!("unknown conditions {other}"),
+    }
+}
+
+#[test]
+fn cam02_matches_colour_science() {
+    let (mut n, mut n_quadrature) = (0, 0);
+    for (i, row) in fixture("cam02_colour047.csv").iter().enumerate() {
+        let white = row.xyz("Xw", "Yw", "Zw");
+        let xyz = row.xyz("X", "Y", "Z");
+        let conditions = row.s("conditions");
+        let tag = format!("row {i} ({} {conditions})", row.s("white"));
+        let ucs = Cam02Ucs::new(white, conditions_named(conditions)).unwrap();
+        let a = ucs.cam02().appearance(xyz);
+        close(&format!("{tag} J"), a.j, row.f("J"), TOL_CAM);
+        close(&format!("{tag} C"), a.c, row.f("C"), TOL_CAM);
+        close(&format!("{tag} M"), a.m, row.f("M"), TOL_CAM);
+        close(&format!("{tag} s"), a.s, row.f("s"), TOL_CAM);
+        close(&format!("{tag} Q"), a.q, row.f("Q"), TOL_CAM);
+        let h = row.f("h");
+        let dh = (a.h_deg - h + 180.0).rem_euclid(360.0) - 180.0;
+        close(&format!("{tag} h"), dh, 0.0, TOL_CAM_HUE_DEG);
+        // The package's hue quadrature departs from CIE 159 outside 20.14°–237.53° (fixture header).
+        if (20.14..237.53).contains(&h) {
+            close(&format!("{tag} H"), a.hue_quadrature, row.f("H"), 1e-6);
+            n_quadrature += 1;
+        }
+        let jab = ucs.jab(xyz);
+        close(&format!("{tag} J'"), jab[0], row.f("Jp"), TOL_CAM);
+        close(&format!("{tag} a'"), jab[1], row.f("ap"), TOL_CAM);
+        close(&format!("{tag} b'"), jab[2], row.f("bp"), TOL_CAM);
+        if conditions == "tm30" {
+            assert_eq!(cam02_ucs_tm30(xyz, white).unwrap(), jab);
+        }
+        n += 1;
+    }
+    assert!(
+        n >= 100 && n_quadrature >= 30,
+        "{n} rows, {n_quadrature} with H compared"
     );
 }
