@@ -15,17 +15,22 @@
 
 mod error;
 
+pub mod calibration;
 pub mod correction;
 pub mod fit_de2000;
 pub mod fit_linear;
+pub mod locus;
 pub mod quality;
 pub mod raw;
 pub mod root_poly;
 pub mod sensitivities;
 pub mod training;
+pub mod white_balance;
 
+pub use calibration::MatrixMode;
 pub use correction::{ColorCorrection, DeltaEStats, FitData, FitMethod, fit_color_correction};
 pub use error::{CameraError, Result};
 pub use raw::{SceneResponse, SubjectSignal, raw_signal};
 pub use sensitivities::CameraSensitivities;
 pub use training::TrainingSet;
+pub use white_balance::{WbGains, WbPreset, WhiteBalance};
