@@ -3,6 +3,7 @@
 //! Every message is one line, says what is wrong and where (file and line, or
 //! the field of the plan), and is meant to be shown to the user as it is.
 
+use lampwright_camera::CameraError;
 use lampwright_color::ColorError;
 use std::path::PathBuf;
 use thiserror::Error;
@@ -124,7 +125,7 @@ pub enum PlanError {
     /// A value in the plan is not acceptable (non-finite, negative, inconsistent).
     #[error("{field}: {message}")]
     Invalid {
-        /// Where in the plan, e.g. "sources[0].level_lux" or "source 'Key'".
+        /// Where in the plan, e.g. `sources[0].level_lux` or "source 'Key'".
         field: String,
         /// What is wrong.
         message: String,
@@ -140,6 +141,9 @@ pub enum PlanError {
     /// A colour computation failed.
     #[error(transparent)]
     Color(#[from] ColorError),
+    /// A camera computation failed.
+    #[error(transparent)]
+    Camera(#[from] CameraError),
     /// A plan could not be written as text (should not happen for valid plans).
     #[error("could not write the plan as RON: {0}")]
     Serialize(String),

@@ -6,6 +6,7 @@
 
 mod error;
 pub mod evaluation;
+pub mod library;
 pub mod model;
 
 pub use model::*;
