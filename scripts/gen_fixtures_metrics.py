@@ -177,6 +177,7 @@ for name, s in spectra.items():
         rec["rhs_hj"] = [float(v) for v in tm.R_hs]
         rec["rf_cces"] = [float(v) for v in tm.R_s]
         rec["tm30_cct_k"] = float(tm.CCT)
+        rec["tm30_bins"] = [int(v) for v in tm.bins]
         ref = default_ssi_reference(cct_o)
         rec["ssi_unrounded"] = float(
             spectral_similarity_index(SpectralDistribution(s, WL, name=name), ref, round_result=False)

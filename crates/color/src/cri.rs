@@ -8,7 +8,7 @@
 //!    CIE 1931 2° observer, 360–830 nm at 1 nm, Y = 100 for the perfect white.
 //! 4. Von Kries adaptation of the test-lamp colours to the reference in the
 //!    CIE 1960 (u, v) diagram with the c, d functions of §5.5 (eqs. 5–7).
-//! 5. CIE 1964 U*V*W* of each sample, ΔEᵢ, `Rᵢ = 100 − 4.6·ΔEᵢ`; Ra is the mean
+//! 5. CIE 1964 `U*V*W*` of each sample, `ΔEᵢ`, `Rᵢ = 100 − 4.6·ΔEᵢ`; Ra is the mean
 //!    of R1–R8.
 //!
 //! The standard says the index is not meaningful when the test lamp's
@@ -255,7 +255,7 @@ mod tests {
         // CIE 15:2018 Table 10 / CIE 13.3 give Ra = 64 for F2 (published integer).
         let f2 = StandardIlluminant::F(2).spd().unwrap();
         let c = cri_cie133(&f2).unwrap();
-        assert_eq!(c.ra.round(), 64.0, "{c:?}");
+        assert!((c.ra.round() - 64.0).abs() < 0.5, "{c:?}");
     }
 
     #[test]

@@ -17,6 +17,7 @@ pub mod delta_e;
 mod error;
 pub mod illuminant;
 pub mod import;
+pub mod lamp_report;
 pub mod observer;
 pub mod photometry;
 pub mod resample;

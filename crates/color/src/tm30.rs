@@ -1,1 +1,355 @@
-//! (in progress)
+//! ANSI/IES TM-30-20 colour fidelity and gamut (fidelity index identical to
+//! CIE 224:2017 Rf): Rf, Rg, the 99 per-sample fidelities, and per hue bin
+//! Rf,hj, Rcs,hj (chroma shift), Rhs,hj (hue shift) plus the bin averages the
+//! colour-vector graphic is drawn from.
+//!
+//! Method (CIE 224:2017 §4–5; TM-30-20 §4):
+//! 1. CCT of the test light (Lampwright's lamp CCT: Ohno 2014, 1931 2°).
+//! 2. Reference: Planckian below 4000 K, CIE daylight above 5000 K, and in
+//!    between a mix of both normalised to equal Y (1931 ȳ), with daylight weight
+//!    `(T − 4000)/1000`.
+//! 3. XYZ of the 99 colour evaluation samples (CES) under test and reference,
+//!    CIE 1964 10° observer, 380–780 nm at 1 nm (CIE 224's range; Lampwright's
+//!    grid extends to 360–830 nm but the samples are only defined on 380–780 nm),
+//!    each light scaled to Y = 100.
+//! 4. CAM02-UCS J′a′b′ (`L_A` = 100 cd/m², Yb = 20, average surround, D = 1).
+//! 5. ΔE′ᵢ per sample; `Rf = 10·ln(exp((100 − 6.73·mean ΔE′)/10) + 1)`.
+//! 6. Samples sorted into 16 bins of 22.5° by their hue under the reference;
+//!    per bin average a′, b′ under test and reference; Rg = 100 × ratio of the
+//!    areas of the two 16-gons; Rcs,hj and Rhs,hj are the components of the bin
+//!    shift along and across the bin's centre hue, over the reference chroma.
+//!
+//! Speed: the products CESᵢ(λ)·x̄₁₀(λ) etc. are precomputed once, so the
+//! colorimetry of all 99 samples under a light is one 300 × 401 matrix–vector
+//! product.
+//!
+//! The lamp CCT used to pick the reference sums 360–830 nm; colour-science 0.4.7
+//! (`colour_fidelity_index_ANSIIESTM3018`) trims the test light to 380–780 nm
+//! first. The CCTs differ by a fraction of a kelvin (see the fixture test).
+//!
+//! # References
+//! - ANSI/IES TM-30-20, *IES Method for Evaluating Light Source Color Rendition*.
+//! - CIE 224:2017, *CIE 2017 Colour Fidelity Index for accurate scientific use*,
+//!   doi:10.25039/TR.224.2017.
+//! - Luo, M. R., Cui, G., Li, C. (2006). Uniform colour spaces based on CIECAM02.
+//!   *Color Res. Appl.* 31(4), 320–330. doi:10.1002/col.20227
+
+use crate::cam02::{Cam02Ucs, delta_e_cam02ucs};
+use crate::cct::{CctDuv, CctMethod, cct_duv, uv1960_of_spd};
+use crate::cri::ReferenceKind;
+use crate::error::{ColorError, Result};
+use crate::illuminant::{daylight, planckian};
+use crate::observer::Observer;
+use crate::spectral_weights::{WeightRows, dot};
+use crate::spectrum::{GRID_START_NM, Reflectance, RelativeSpd};
+use crate::table::AssetTable;
+use crate::tristimulus::Xyz;
+use std::sync::LazyLock;
+
+/// Below the first bound the reference is Planckian, above the second CIE daylight, K.
+pub const TM30_BLEND_RANGE_K: (f64, f64) = (4000.0, 5000.0);
+/// Scaling factor `c_f` of the fidelity index (CIE 224:2017 eq. 5).
+pub const TM30_CF: f64 = 6.73;
+/// Number of hue bins.
+pub const TM30_BINS: usize = 16;
+/// Number of colour evaluation samples.
+pub const TM30_CES_COUNT: usize = 99;
+
+/// CIE 224 wavelength range, nm.
+const START_NM: u32 = 380;
+const END_NM: u32 = 780;
+const WINDOW_START: usize = (START_NM - GRID_START_NM) as usize;
+const WINDOW_LEN: usize = (END_NM - START_NM + 1) as usize;
+
+/// TM-30 figures of one light.
+#[derive(Debug, Clone, PartialEq, serde::Serialize, serde::Deserialize)]
+pub struct Tm30 {
+    /// Fidelity index Rf (= CIE 224 Rf), 0–100, unrounded.
+    pub rf: f64,
+    /// Gamut index Rg, 100 for the reference.
+    pub rg: f64,
+    /// Fidelity of each of the 99 samples, Rf,CES1…99.
+    pub rf_ces: Vec<f64>,
+    /// Hue angle h′ of each sample under the reference, degrees 0–360 (its bin
+    /// is `floor(h′ / 22.5)`).
+    pub ces_reference_hue_deg: Vec<f64>,
+    /// Local fidelity per hue bin, Rf,h1…h16.
+    pub rf_hj: [f64; TM30_BINS],
+    /// Local chroma shift per hue bin, Rcs,h1…h16, in percent.
+    pub rcs_hj: [f64; TM30_BINS],
+    /// Local hue shift per hue bin, Rhs,h1…h16 (radians-like fraction of the reference chroma).
+    pub rhs_hj: [f64; TM30_BINS],
+    /// Average (a′, b′) per bin under the test light (colour-vector graphic).
+    pub bin_test_ab: [[f64; 2]; TM30_BINS],
+    /// Average (a′, b′) per bin under the reference (colour-vector graphic).
+    pub bin_reference_ab: [[f64; 2]; TM30_BINS],
+    /// CCT and Duv of the test light that chose the reference.
+    pub cct: CctDuv,
+    /// Reference used.
+    pub reference: ReferenceKind,
+    /// Weight of daylight in the reference (0 Planckian, 1 daylight).
+    pub daylight_fraction: f64,
+}
+
+static CES_WEIGHTS: LazyLock<Result<WeightRows>> = LazyLock::new(|| {
+    let t = AssetTable::parse(
+        "cie224_ces99.csv",
+        include_str!("../../../assets/standard/cie224_ces99.csv"),
+    )?;
+    if t.columns.len() != TM30_CES_COUNT {
+        return Err(ColorError::Numerical(format!(
+            "cie224_ces99.csv has {} samples, expected {TM30_CES_COUNT}",
+            t.columns.len()
+        )));
+    }
+    let samples = t
+        .columns
+        .iter()
+        .map(|c| Reflectance::from_samples(&t.wavelengths_nm, c))
+        .collect::<Result<Vec<_>>>()?;
+    Ok(WeightRows::for_samples(
+        &samples,
+        Observer::cie1964_10deg(),
+        WINDOW_START,
+        WINDOW_LEN,
+    ))
+});
+
+/// Y (1931 ȳ) of a spectrum over 380–780 nm, for the reference blend.
+fn y_380_780(spd: &RelativeSpd) -> f64 {
+    let w = WINDOW_START..WINDOW_START + WINDOW_LEN;
+    dot(&spd.values()[w.clone()], &Observer::cie1931_2deg().y_bar[w])
+}
+
+/// The TM-30 / CIE 224 reference at `cct_k` (1000–25 000 K), with its kind and
+/// daylight fraction. `planck` and `day` may pass spectra already computed at
+/// `cct_k`; missing ones are computed.
+pub fn tm30_reference(
+    cct_k: f64,
+    planck: Option<&RelativeSpd>,
+    day: Option<&RelativeSpd>,
+) -> Result<(RelativeSpd, ReferenceKind, f64)> {
+    let (lo, hi) = TM30_BLEND_RANGE_K;
+    let get_planck = || planck.map_or_else(|| planckian(cct_k), |p| Ok(p.clone()));
+    let get_day = || day.map_or_else(|| daylight(cct_k), |d| Ok(d.clone()));
+    if cct_k < lo {
+        return Ok((get_planck()?, ReferenceKind::Planckian, 0.0));
+    }
+    if cct_k > hi {
+        return Ok((get_day()?, ReferenceKind::Daylight, 1.0));
+    }
+    let p = get_planck()?;
+    let d = get_day()?;
+    let (yp, yd) = (y_380_780(&p), y_380_780(&d));
+    if !(yp > 0.0 && yd > 0.0) {
+        return Err(ColorError::Numerical(format!(
+            "reference spectra at {cct_k} K have no luminance"
+        )));
+    }
+    let m = (cct_k - lo) / (hi - lo);
+    let mix = RelativeSpd::weighted_sum([((1.0 - m) / yp, &p), (m / yd, &d)]);
+    Ok((mix, ReferenceKind::Blend, m))
+}
+
+/// `10·ln(exp((100 − c_f·ΔE′)/10) + 1)` (CIE 224:2017 eq. 5), without overflow.
+#[must_use]
+pub fn rf_from_delta_e(delta_e: f64) -> f64 {
+    let x = (100.0 - TM30_CF * delta_e) / 10.0;
+    // softplus: ln(1 + eˣ) = max(x, 0) + ln(1 + e^−|x|)
+    10.0 * (x.max(0.0) + (-x.abs()).exp().ln_1p())
+}
+
+/// CAM02-UCS J′a′b′ of the 99 samples under a light.
+fn ces_jab(weights: &WeightRows, spd: &RelativeSpd, sums: &mut Vec<f64>) -> Result<Vec<[f64; 3]>> {
+    weights.apply(spd.values(), sums);
+    let n = weights.sample_count();
+    let white = Xyz::new(sums[3 * n], sums[3 * n + 1], sums[3 * n + 2]);
+    if !(white.y > 0.0 && white.is_finite()) {
+        return Err(ColorError::NotColorimetric {
+            what: "light".into(),
+            reason: "it has no visible power between 380 and 780 nm".into(),
+        });
+    }
+    let k = 100.0 / white.y;
+    let ucs = Cam02Ucs::tm30(white.scaled(k))?;
+    Ok((0..n)
+        .map(|i| {
+            ucs.jab(Xyz::new(
+                sums[3 * i] * k,
+                sums[3 * i + 1] * k,
+                sums[3 * i + 2] * k,
+            ))
+        })
+        .collect())
+}
+
+/// Twice the signed area of the polygon through `pts` in order (shoelace).
+fn polygon_area(pts: &[[f64; 2]; TM30_BINS]) -> f64 {
+    (0..TM30_BINS)
+        .map(|i| {
+            let (a, b) = (pts[i], pts[(i + 1) % TM30_BINS]);
+            a[0] * b[1] - a[1] * b[0]
+        })
+        .sum::<f64>()
+        / 2.0
+}
+
+/// TM-30-20 of a light, reference chosen at its CCT (Ohno 2014).
+///
+/// Refuses lights that are not colorimetric or have no CCT (|Duv| > 0.05 or
+/// outside 1000–20 000 K).
+///
+/// # References
+/// - ANSI/IES TM-30-20; CIE 224:2017, doi:10.25039/TR.224.2017.
+pub fn tm30(test: &RelativeSpd) -> Result<Tm30> {
+    let cct = cct_duv(uv1960_of_spd(test, "light")?, CctMethod::Ohno2014)?;
+    tm30_with_references(test, cct, None, None)
+}
+
+/// TM-30-20 of `test` whose CCT is `cct`, reusing Planckian / daylight spectra
+/// already computed at that CCT (pass `None` to have them computed).
+pub fn tm30_with_references(
+    test: &RelativeSpd,
+    cct: CctDuv,
+    planck: Option<&RelativeSpd>,
+    day: Option<&RelativeSpd>,
+) -> Result<Tm30> {
+    test.check_colorimetric("light")?;
+    let weights = CES_WEIGHTS.as_ref().map_err(Clone::clone)?;
+    let (reference, kind, daylight_fraction) = tm30_reference(cct.cct_k, planck, day)?;
+    let mut sums = Vec::with_capacity(3 * (TM30_CES_COUNT + 1));
+    let jab_t = ces_jab(weights, test, &mut sums)?;
+    let jab_r = ces_jab(weights, &reference, &mut sums)?;
+
+    let de: Vec<f64> = jab_t
+        .iter()
+        .zip(&jab_r)
+        .map(|(t, r)| delta_e_cam02ucs(*t, *r))
+        .collect();
+    let mean_de = de.iter().sum::<f64>() / de.len() as f64;
+    let rf = rf_from_delta_e(mean_de);
+    let rf_ces = de.iter().map(|d| rf_from_delta_e(*d)).collect();
+
+    let hues: Vec<f64> = jab_r
+        .iter()
+        .map(|r| r[2].atan2(r[1]).to_degrees().rem_euclid(360.0))
+        .collect();
+    let mut count = [0usize; TM30_BINS];
+    let mut sum_t = [[0.0; 2]; TM30_BINS];
+    let mut sum_r = [[0.0; 2]; TM30_BINS];
+    let mut sum_de = [0.0; TM30_BINS];
+    for (((t, r), d), hue_deg) in jab_t.iter().zip(&jab_r).zip(&de).zip(&hues) {
+        let j = ((hue_deg / 22.5).floor() as usize).min(TM30_BINS - 1);
+        count[j] += 1;
+        sum_t[j][0] += t[1];
+        sum_t[j][1] += t[2];
+        sum_r[j][0] += r[1];
+        sum_r[j][1] += r[2];
+        sum_de[j] += d;
+    }
+    if let Some(j) = count.iter().position(|c| *c == 0) {
+        return Err(ColorError::Numerical(format!(
+            "TM-30 hue bin {} holds no sample",
+            j + 1
+        )));
+    }
+    let mut out = Tm30 {
+        rf,
+        rg: 0.0,
+        rf_ces,
+        ces_reference_hue_deg: hues,
+        rf_hj: [0.0; TM30_BINS],
+        rcs_hj: [0.0; TM30_BINS],
+        rhs_hj: [0.0; TM30_BINS],
+        bin_test_ab: [[0.0; 2]; TM30_BINS],
+        bin_reference_ab: [[0.0; 2]; TM30_BINS],
+        cct,
+        reference: kind,
+        daylight_fraction,
+    };
+    for j in 0..TM30_BINS {
+        let n = count[j] as f64;
+        let at = [sum_t[j][0] / n, sum_t[j][1] / n];
+        let ar = [sum_r[j][0] / n, sum_r[j][1] / n];
+        out.bin_test_ab[j] = at;
+        out.bin_reference_ab[j] = ar;
+        out.rf_hj[j] = rf_from_delta_e(sum_de[j] / n);
+        let theta = (22.5 * j as f64 + 11.25).to_radians();
+        let (s, c) = theta.sin_cos();
+        let norm = ar[0].hypot(ar[1]);
+        let (da, db) = (at[0] - ar[0], at[1] - ar[1]);
+        out.rcs_hj[j] = 100.0 * (da * c + db * s) / norm;
+        out.rhs_hj[j] = (-da * s + db * c) / norm;
+    }
+    let area_r = polygon_area(&out.bin_reference_ab);
+    out.rg = 100.0 * polygon_area(&out.bin_test_ab) / area_r;
+    let finite = |v: &[f64]| v.iter().all(|x| x.is_finite());
+    if !(out.rf.is_finite()
+        && out.rg.is_finite()
+        && finite(&out.rf_hj)
+        && finite(&out.rcs_hj)
+        && finite(&out.rhs_hj))
+    {
+        return Err(ColorError::Numerical(
+            "TM-30 computation gave a non-finite result".into(),
+        ));
+    }
+    Ok(out)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn rf_formula_matches_cie224() {
+        // CIE 224:2017 eq. 5: ΔE′ = 0 gives 10·ln(e¹⁰ + 1) ≈ 100.000454.
+        assert!((rf_from_delta_e(0.0) - 10.0 * (10.0f64.exp() + 1.0).ln()).abs() < 1e-12);
+        assert!(
+            (rf_from_delta_e(5.0) - 10.0 * ((100.0f64 - 33.65) / 10.0).exp().ln_1p()).abs() < 1e-9
+        );
+        // Very large differences stay finite and tend to 0.
+        let big = rf_from_delta_e(1e6);
+        assert!(big.is_finite() && (0.0..1e-9).contains(&big));
+    }
+
+    #[test]
+    fn references_have_rf_100_rg_100() {
+        // CIE 224 / TM-30: the reference itself scores Rf = Rg = 100 (Rf's formula
+        // gives 100.0005 for ΔE′ = 0).
+        for t in [2700.0, 4500.0, 6500.0] {
+            let (spd, kind, m) = tm30_reference(t, None, None).unwrap();
+            let cct = cct_duv(uv1960_of_spd(&spd, "ref").unwrap(), CctMethod::Ohno2014).unwrap();
+            let r = tm30_with_references(&spd, CctDuv { cct_k: t, ..cct }, None, None).unwrap();
+            assert!((r.rf - 100.0).abs() < 1e-3, "{t}: {}", r.rf);
+            assert!((r.rg - 100.0).abs() < 1e-9, "{t}: {}", r.rg);
+            assert!(r.rcs_hj.iter().all(|v| v.abs() < 1e-9));
+            assert_eq!(
+                kind == ReferenceKind::Blend,
+                (0.0..=1.0).contains(&m) && (t - 4500.0).abs() < 1e-9
+            );
+        }
+    }
+
+    #[test]
+    fn blend_weights_by_cct() {
+        let (_, kind, m) = tm30_reference(4250.0, None, None).unwrap();
+        assert_eq!(kind, ReferenceKind::Blend);
+        assert!((m - 0.25).abs() < 1e-12);
+        assert_eq!(
+            tm30_reference(3999.0, None, None).unwrap().1,
+            ReferenceKind::Planckian
+        );
+        assert_eq!(
+            tm30_reference(5001.0, None, None).unwrap().1,
+            ReferenceKind::Daylight
+        );
+    }
+
+    #[test]
+    fn refuses_lights_without_cct() {
+        let green = RelativeSpd::from_fn(|wl| 0.001 + (-((wl - 530.0) / 10.0).powi(2)).exp());
+        assert!(tm30(&green).is_err());
+        assert!(tm30(&RelativeSpd::from_fn(|_| 0.0)).is_err());
+    }
+}
