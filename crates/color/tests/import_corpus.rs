@@ -8,6 +8,7 @@
 use lampwright_color::import::{
     self, ImportedTable, MAX_FILE_BYTES, MAX_ROWS, SpectrumKind, import_bytes, import_path,
 };
+use std::fmt::Write as _;
 use std::path::PathBuf;
 
 fn data_dir(sub: &str) -> PathBuf {
@@ -41,7 +42,10 @@ struct Good {
     warnings: &'static [&'static str],
 }
 
+// One row per corpus file: a table, not logic.
+#[allow(clippy::too_many_lines)]
 fn good_cases() -> Vec<Good> {
+    use SpectrumKind::{CameraSensitivity as Camera, Lamp, Reflectance, Transmittance};
     let g = |file, kind, wavelengths_nm, names, units, warnings| Good {
         file,
         kind,
@@ -51,7 +55,6 @@ fn good_cases() -> Vec<Good> {
         scale: 1.0,
         warnings,
     };
-    use SpectrumKind::{CameraSensitivity as Camera, Lamp, Reflectance, Transmittance};
     let w5 = || steps(380, 780, 5);
     let w10 = || steps(380, 780, 10);
     let irregular: Vec<f64> = (0..161)
@@ -367,6 +370,8 @@ fn typed_curves_resample_the_columns() {
 }
 
 /// (file, kind, line, keyword) for every malformed file.
+// One row per corpus file: a table, not logic.
+#[allow(clippy::too_many_lines)]
 fn malformed_cases() -> Vec<(&'static str, SpectrumKind, usize, &'static str)> {
     use SpectrumKind::{CameraSensitivity as Camera, Lamp};
     vec![
@@ -613,7 +618,7 @@ fn too_many_rows_are_refused_at_the_first_row_over_the_cap() {
     // MAX_ROWS + 1 rows at 0.02 nm steps from 300 nm stay inside the plausible range.
     let mut text = String::from("nm,a\n");
     for i in 0..=MAX_ROWS {
-        text.push_str(&format!("{:.2},1\n", 300.0 + 0.02 * i as f64));
+        writeln!(text, "{:.2},1", 300.0 + 0.02 * i as f64).unwrap();
     }
     let err = import_bytes("rows.csv", text.as_bytes(), SpectrumKind::Lamp)
         .unwrap_err()
