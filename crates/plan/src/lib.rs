@@ -7,7 +7,9 @@
 mod error;
 pub mod evaluation;
 pub mod library;
+pub mod limits;
 pub mod model;
+pub mod resolve;
 
 pub use model::*;
 
