@@ -1,0 +1,472 @@
+//! The evaluation engine: a plan in, everything the crew needs to see out.
+//!
+//! `evaluate` is pure: the same plan always gives the same [`Evaluation`]. It
+//! works in four steps:
+//! 1. each source becomes an absolute spectral irradiance at the subject
+//!    (lamp × dimmer × gels, scaled so that the unfiltered lamp gives the
+//!    source's level in lux);
+//! 2. each zone mixes the sources that reach it (one implicit zone when the
+//!    plan has none) and gets its light figures (lux, EV, CCT, Duv, CRI, TM-30, SSI);
+//! 3. the camera gets one white balance and one matrix for the whole frame,
+//!    set from the main zone as a real camera would;
+//! 4. every subject is rendered in every zone, eye versus camera.
+//!
+//! Nothing that leaves here is NaN: quantities that cannot be computed are
+//! `None`, with a warning that says why.
+
+use crate::error::{PlanError, Result};
+use crate::evaluation::{
+    Evaluation, LightFigures, SourceFigures, SubjectResult, Summary, Tm30Bins, ZoneEvaluation,
+};
+use crate::model::{Plan, Source, SourceId, SourceRole, ZoneLevel};
+use crate::render::CameraStage;
+use crate::resolve;
+use lampwright_color::cct::{CctMethod, cct_duv_of_spd, mired};
+use lampwright_color::observer::{Observer, v_lambda};
+use lampwright_color::photometry::ev100_from_illuminance_lux;
+use lampwright_color::spaces::Uv1960;
+use lampwright_color::spectrum::{GRID_LEN, RelativeSpd, SpectralIrradiance};
+use lampwright_color::tristimulus::{KM_LM_PER_W, xyz_sums};
+
+/// Below this illuminance a mix counts as dark: no colour figures.
+pub const DARK_LUX: f64 = 1e-6;
+
+/// Gel stacks losing more than this many stops get a warning.
+pub const GEL_LOSS_WARNING_STOPS: f64 = 3.0;
+
+/// Zones whose whites differ by more than this many mired get a warning.
+pub const ZONE_MIRED_WARNING: f64 = 20.0;
+
+/// Zones whose Duv differ by more than this get a warning.
+pub const ZONE_DUV_WARNING: f64 = 0.006;
+
+/// One source as light at the subject.
+#[derive(Debug, Clone)]
+pub struct SourceLight {
+    /// The source's id.
+    pub id: SourceId,
+    /// Its name.
+    pub name: String,
+    /// Its role.
+    pub role: SourceRole,
+    /// Whether it lights the scene (on, and soloed when any is soloed).
+    pub lit: bool,
+    /// Spectral irradiance at the subject for 1 lux of the unfiltered lamp at
+    /// full output, after the dimmer's colour shift and the gels (W·m⁻²·nm⁻¹ per lux).
+    pub per_lux: SpectralIrradiance,
+    /// Level at full output before gels, lux.
+    pub level_lux: f64,
+    /// Light output factor of the dimmer (1 at full).
+    pub dimmer_flux: f64,
+    /// Fraction of illuminance the gels pass.
+    pub gel_transmission: f64,
+    /// Measured range of the lamp and gel data.
+    pub coverage: lampwright_color::Coverage,
+}
+
+impl SourceLight {
+    /// Illuminance after dimmer and gels at the source's own level, lux.
+    #[must_use]
+    pub fn illuminance_lux(&self) -> f64 {
+        self.level_lux * self.dimmer_flux * self.gel_transmission
+    }
+}
+
+fn illuminance_of(values: &[f64; GRID_LEN]) -> f64 {
+    KM_LM_PER_W
+        * values
+            .iter()
+            .zip(v_lambda())
+            .map(|(s, v)| s * v)
+            .sum::<f64>()
+}
+
+/// Turn one source into light at the subject: lamp, dimmer, gels, and the
+/// scale that makes the unfiltered lamp give the source's level in lux.
+pub fn source_light(plan: &Plan, source: &Source) -> Result<SourceLight> {
+    let context = resolve::source_context(source);
+    if !source.level_lux.is_finite() || source.level_lux < 0.0 {
+        return Err(PlanError::Invalid {
+            field: format!("{context} level"),
+            message: format!("{} lux is not a level (use 0 or more)", source.level_lux),
+        });
+    }
+    let resolved = resolve::resolve_source(plan, source)?;
+    resolved
+        .lamp
+        .spd
+        .check_colorimetric(&context)
+        .map_err(|e| PlanError::color_in(&context, e))?;
+    let lamp_lux_per_unit = illuminance_of(resolved.lamp.spd.values());
+    if lamp_lux_per_unit <= 0.0 {
+        return Err(PlanError::Invalid {
+            field: context,
+            message: "the lamp has no visible output".into(),
+        });
+    }
+    let gel_transmission = illuminance_of(resolved.filtered.values()) / lamp_lux_per_unit;
+    Ok(SourceLight {
+        id: source.id,
+        name: source.name.clone(),
+        role: source.role,
+        lit: plan.is_lit(source),
+        per_lux: resolved.filtered.to_irradiance(1.0 / lamp_lux_per_unit),
+        level_lux: source.level_lux,
+        dimmer_flux: resolved.lamp.flux_factor(),
+        gel_transmission,
+        coverage: resolved.filtered.coverage(),
+    })
+}
+
+/// A zone's mix: which sources at what pre-gel level.
+#[derive(Debug, Clone)]
+struct ZoneMix {
+    id: u32,
+    name: String,
+    /// (index into resolved sources, level lux at full output before gels)
+    parts: Vec<(usize, f64)>,
+}
+
+fn zone_level_lux(source: &SourceLight, level: &ZoneLevel, zone: &str) -> Result<f64> {
+    let lux = match level {
+        ZoneLevel::AsSource => source.level_lux,
+        ZoneLevel::Lux(l) => *l,
+        ZoneLevel::Stops(s) => source.level_lux * s.exp2(),
+        ZoneLevel::Distance {
+            rated_lux_at_1m,
+            distance_m,
+        } => inverse_square_lux(*rated_lux_at_1m, *distance_m).ok_or_else(|| PlanError::Invalid {
+            field: format!("zone '{zone}', source '{}'", source.name),
+            message: format!(
+                "rated {rated_lux_at_1m} lux at 1 m and distance {distance_m} m do not give a level (distance must be above 0)"
+            ),
+        })?,
+    };
+    if !lux.is_finite() || lux < 0.0 {
+        return Err(PlanError::Invalid {
+            field: format!("zone '{zone}', source '{}'", source.name),
+            message: format!("{lux} lux is not a level"),
+        });
+    }
+    Ok(lux)
+}
+
+/// Illuminance from a fixture's rated output at 1 m and its distance, by the
+/// inverse-square law (common practice; holds when the distance is several
+/// times the size of the source). `None` for a distance that is not positive.
+#[must_use]
+pub fn inverse_square_lux(rated_lux_at_1m: f64, distance_m: f64) -> Option<f64> {
+    (distance_m > 0.0
+        && distance_m.is_finite()
+        && rated_lux_at_1m.is_finite()
+        && rated_lux_at_1m >= 0.0)
+        .then(|| rated_lux_at_1m / (distance_m * distance_m))
+}
+
+fn zone_mixes(plan: &Plan, sources: &[SourceLight]) -> Result<Vec<ZoneMix>> {
+    if plan.zones.is_empty() {
+        return Ok(vec![ZoneMix {
+            id: 0,
+            name: "Scene".into(),
+            parts: sources
+                .iter()
+                .enumerate()
+                .map(|(i, s)| (i, s.level_lux))
+                .collect(),
+        }]);
+    }
+    plan.zones
+        .iter()
+        .map(|zone| {
+            let mut parts = Vec::new();
+            for reach in &zone.reach {
+                let Some(i) = sources.iter().position(|s| s.id == reach.source) else {
+                    return Err(PlanError::Invalid {
+                        field: format!("zone '{}'", zone.name),
+                        message: format!(
+                            "it refers to source #{} which is not in the plan",
+                            reach.source
+                        ),
+                    });
+                };
+                parts.push((i, zone_level_lux(&sources[i], &reach.level, &zone.name)?));
+            }
+            Ok(ZoneMix {
+                id: zone.id,
+                name: zone.name.clone(),
+                parts,
+            })
+        })
+        .collect()
+}
+
+fn mix_spectrum(sources: &[SourceLight], parts: &[(usize, f64)]) -> SpectralIrradiance {
+    let lit = parts
+        .iter()
+        .filter(|(i, _)| sources[*i].lit)
+        .map(|(i, lux)| {
+            (
+                lux * sources[*i].dimmer_flux,
+                sources[*i].per_lux.to_relative(),
+            )
+        });
+    let spds: Vec<(f64, RelativeSpd)> = lit.collect();
+    RelativeSpd::weighted_sum(spds.iter().map(|(w, s)| (*w, s))).to_irradiance(1.0)
+}
+
+/// Light figures of a mix. Figures that cannot be computed are `None` and a
+/// warning names the zone and the reason.
+fn light_figures(mix: &SpectralIrradiance, zone: &str, warnings: &mut Vec<String>) -> LightFigures {
+    let lux = illuminance_of(mix.values());
+    let mut fig = LightFigures {
+        spectrum: mix.values().to_vec(),
+        illuminance_lux: lux,
+        ..LightFigures::default()
+    };
+    if lux <= DARK_LUX {
+        warnings.push(format!(
+            "{zone}: no light reaches it (all sources off or at zero)"
+        ));
+        return fig;
+    }
+    fig.ev100 = ev100_from_illuminance_lux(lux).ok();
+    let xyz = xyz_sums(mix.values(), Observer::cie1931_2deg());
+    if let Some((x, y)) = xyz.chromaticity() {
+        fig.xy = Some([x, y]);
+        let uv = Uv1960::from_xy(x, y);
+        fig.uv = Some([uv.u, uv.v]);
+    }
+    let spd = mix.to_relative();
+    if let Err(e) = spd.check_colorimetric(zone) {
+        warnings.push(e.to_string());
+        return fig;
+    }
+    match cct_duv_of_spd(&spd, CctMethod::Ohno2014) {
+        Ok(c) => {
+            fig.cct_k = Some(c.cct_k);
+            fig.duv = Some(c.duv);
+            fig.mired = mired(c.cct_k).ok();
+        }
+        Err(e) => warnings.push(format!("{zone}: no CCT: {e}")),
+    }
+    match lampwright_color::cri::cri_cie133(&spd) {
+        Ok(c) => {
+            if !c.meaningful {
+                warnings.push(format!(
+                    "{zone}: the light is too far from the blackbody line for CRI to mean much (CIE 13.3)"
+                ));
+            }
+            fig.cri_ra = Some(c.ra);
+            fig.cri_r = Some(c.r);
+        }
+        Err(e) => warnings.push(format!("{zone}: no CRI: {e}")),
+    }
+    tm30_figures(&spd, zone, &mut fig, warnings);
+    match lampwright_color::ssi::ssi_default(&spd) {
+        Ok(s) => fig.ssi = Some(s.value),
+        Err(e) => warnings.push(format!("{zone}: no SSI: {e}")),
+    }
+    fig
+}
+
+fn tm30_figures(spd: &RelativeSpd, zone: &str, fig: &mut LightFigures, warnings: &mut Vec<String>) {
+    match lampwright_color::tm30::tm30(spd) {
+        Ok(t) => {
+            fig.tm30_rf = Some(t.rf);
+            fig.tm30_rg = Some(t.rg);
+            fig.tm30_bins = Some(Tm30Bins {
+                rf_hj: t.rf_hj.to_vec(),
+                rcs_hj: t.rcs_hj.to_vec(),
+                rhs_hj: t.rhs_hj.to_vec(),
+                reference_ab: t.bin_reference_ab.to_vec(),
+                test_ab: t.bin_test_ab.to_vec(),
+            });
+        }
+        Err(e) => warnings.push(format!("{zone}: no TM-30 figures: {e}")),
+    }
+}
+
+/// Summary statistics over the included subjects.
+fn summarise(subjects: &[SubjectResult]) -> Summary {
+    let mut included: Vec<&SubjectResult> = subjects.iter().filter(|s| s.included).collect();
+    if included.is_empty() {
+        return Summary::default();
+    }
+    included.sort_by(|a, b| a.de2000.total_cmp(&b.de2000));
+    let n = included.len();
+    let mean = included.iter().map(|s| s.de2000).sum::<f64>() / n as f64;
+    // Nearest-rank 90th percentile.
+    let rank = ((0.9 * n as f64).ceil() as usize).clamp(1, n);
+    let worst = included[n - 1];
+    Summary {
+        mean_de2000: Some(mean),
+        p90_de2000: Some(included[rank - 1].de2000),
+        max_de2000: Some(worst.de2000),
+        worst_subject: Some(worst.name.clone()),
+    }
+}
+
+/// Evaluate a plan. Pure: the same plan gives the same evaluation.
+pub fn evaluate(plan: &Plan) -> Result<Evaluation> {
+    let mut warnings = Vec::new();
+    let sources: Vec<SourceLight> = plan
+        .sources
+        .iter()
+        .map(|s| source_light(plan, s))
+        .collect::<Result<_>>()?;
+    for (s, r) in plan.sources.iter().zip(&sources) {
+        let loss = -r.gel_transmission.max(f64::MIN_POSITIVE).log2();
+        if loss > GEL_LOSS_WARNING_STOPS {
+            warnings.push(format!(
+                "source '{}': its gels cost {loss:.1} stops of light",
+                s.name
+            ));
+        }
+        if r.coverage.start_nm > 380.0 || r.coverage.end_nm < 780.0 {
+            warnings.push(format!(
+                "source '{}': its lamp and gel data cover only {:.0}–{:.0} nm; ends are extended",
+                s.name, r.coverage.start_nm, r.coverage.end_nm
+            ));
+        }
+    }
+    let mixes = zone_mixes(plan, &sources)?;
+    let zone_spectra: Vec<SpectralIrradiance> = mixes
+        .iter()
+        .map(|m| mix_spectrum(&sources, &m.parts))
+        .collect();
+    let zone_lights: Vec<LightFigures> = mixes
+        .iter()
+        .zip(&zone_spectra)
+        .map(|(m, spd)| light_figures(spd, &m.name, &mut warnings))
+        .collect();
+
+    let subjects = plan
+        .subjects
+        .iter()
+        .map(|s| resolve::subject_reflectance(plan, &s.subject))
+        .collect::<Result<Vec<_>>>()?;
+    let camera = CameraStage::new(plan, &zone_spectra[0], &subjects)?;
+    let mut zones = Vec::with_capacity(mixes.len());
+    let mut metamers = Vec::new();
+    let main_lux = zone_lights[0].illuminance_lux;
+    for ((m, spd), light) in mixes.iter().zip(&zone_spectra).zip(zone_lights) {
+        let rendered = camera.render(plan, spd, &subjects, &mut warnings)?;
+        if zones.is_empty() {
+            metamers = rendered.metamers;
+        }
+        let stops_from_main = (main_lux > DARK_LUX && light.illuminance_lux > DARK_LUX)
+            .then(|| (light.illuminance_lux / main_lux).log2());
+        let mired_from_white_balance = match (light.mired, camera.figures().wb_cct_k) {
+            (Some(zm), Some(wb)) => mired(wb).ok().map(|wm| zm - wm),
+            _ => None,
+        };
+        zones.push(ZoneEvaluation {
+            zone_id: m.id,
+            name: m.name.clone(),
+            light,
+            stops_from_main,
+            mired_from_white_balance,
+            subjects: rendered.subjects,
+        });
+    }
+    zone_warnings(&zones, &mut warnings);
+
+    let main_parts = &mixes[0].parts;
+    let source_figures = source_figures(&sources, main_parts);
+    let main = &zones[0];
+    let subjects_main = main.subjects.clone();
+    let summary = summarise(&subjects_main);
+    Ok(Evaluation {
+        light: main.light.clone(),
+        sources: source_figures,
+        summary,
+        metamers,
+        camera: camera.figures().clone(),
+        subjects: subjects_main,
+        zones,
+        warnings,
+    })
+}
+
+fn source_figures(sources: &[SourceLight], parts: &[(usize, f64)]) -> Vec<SourceFigures> {
+    let level_in_main = |i: usize| parts.iter().find(|(k, _)| *k == i).map(|(_, l)| *l);
+    let lux_of = |i: usize| {
+        let s = &sources[i];
+        level_in_main(i).map_or(0.0, |l| {
+            if s.lit {
+                l * s.dimmer_flux * s.gel_transmission
+            } else {
+                0.0
+            }
+        })
+    };
+    let key_lux = sources
+        .iter()
+        .enumerate()
+        .filter(|(_, s)| s.role == SourceRole::Key && s.lit)
+        .map(|(i, _)| lux_of(i))
+        .fold(0.0, f64::max);
+    sources
+        .iter()
+        .enumerate()
+        .map(|(i, s)| {
+            let lux = lux_of(i);
+            let own = s.per_lux.scaled(s.level_lux * s.dimmer_flux);
+            let cct = cct_duv_of_spd(&own.to_relative(), CctMethod::Ohno2014).ok();
+            SourceFigures {
+                source_id: s.id,
+                name: s.name.clone(),
+                lit: s.lit,
+                illuminance_lux: lux,
+                stops_from_key: (key_lux > DARK_LUX && lux > DARK_LUX && s.role != SourceRole::Key)
+                    .then(|| (lux / key_lux).log2()),
+                gel_loss_stops: -s.gel_transmission.max(f64::MIN_POSITIVE).log2(),
+                cct_k: cct.map(|c| c.cct_k),
+                duv: cct.map(|c| c.duv),
+                spectrum: if s.lit {
+                    s.per_lux
+                        .scaled(level_in_main(i).unwrap_or(0.0) * s.dimmer_flux)
+                        .values()
+                        .to_vec()
+                } else {
+                    vec![0.0; GRID_LEN]
+                },
+            }
+        })
+        .collect()
+}
+
+/// Warnings in the trade's words when zones' whites differ.
+fn zone_warnings(zones: &[ZoneEvaluation], warnings: &mut Vec<String>) {
+    let Some(main) = zones.first() else { return };
+    for z in zones.iter().skip(1) {
+        if let (Some(zm), Some(mm)) = (z.light.mired, main.light.mired) {
+            let d = zm - mm;
+            if d.abs() > ZONE_MIRED_WARNING {
+                let (dir, look) = if d > 0.0 {
+                    ("warmer", "orange")
+                } else {
+                    ("cooler", "blue")
+                };
+                warnings.push(format!(
+                    "{} is {:.0} mired {dir} than the {}: it will read {look}",
+                    z.name,
+                    d.abs(),
+                    main.name.to_lowercase()
+                ));
+            }
+        }
+        if let (Some(zd), Some(md)) = (z.light.duv, main.light.duv) {
+            let d = zd - md;
+            if d.abs() > ZONE_DUV_WARNING {
+                let look = if d > 0.0 { "green" } else { "magenta" };
+                warnings.push(format!(
+                    "{} sits {:.3} Duv more {look} than the {}: it will read {look}",
+                    z.name,
+                    d.abs(),
+                    main.name.to_lowercase()
+                ));
+            }
+        }
+    }
+}

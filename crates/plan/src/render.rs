@@ -1,0 +1,274 @@
+//! The camera stage of the evaluation: one white balance and one matrix for
+//! the whole frame, set from the main zone's light, then every subject in
+//! every zone rendered eye versus camera.
+//!
+//! A zone other than the main one is rendered at its own exposure relative to
+//! the main zone (its raw signal and its XYZ scaled by its light relative to
+//! the main light), with the camera's white balance and matrix and the eye's
+//! adaptation unchanged — as one frame is shot and seen.
+
+use crate::error::Result;
+use crate::evaluation::{CameraFigures, MetamerPair, SubjectResult};
+use crate::model::{
+    Adaptation, Display, FitMethod, MatrixMode, Plan, WbPreset, WhiteBalanceSetting,
+};
+use crate::resolve::{self, ResolvedSubject};
+use lampwright_camera::display::DisplaySpace;
+use lampwright_camera::pipeline::{
+    CameraPipeline, CameraSettings, SubjectComparison, camera_metamers,
+};
+use lampwright_camera::quality::{luther_residual, vora_trussell_mu};
+use lampwright_camera::raw::{SceneResponse, SubjectSignal, raw_of_light};
+use lampwright_camera::{CameraSensitivities, TrainingSet, WhiteBalance};
+use lampwright_color::observer::Observer;
+use lampwright_color::spectrum::SpectralIrradiance;
+use lampwright_color::tristimulus::xyz_sums;
+
+/// Below this (relative) a light counts as dark for the camera.
+const DARK: f64 = 1e-12;
+
+/// The camera set up for the frame.
+pub struct CameraStage {
+    camera: CameraSensitivities,
+    /// `None` when the main zone is dark: every subject renders black.
+    pipeline: Option<CameraPipeline>,
+    main_raw_g: f64,
+    main_y: f64,
+    figures: CameraFigures,
+}
+
+/// One zone rendered.
+pub struct Rendered {
+    /// Per subject, plan order.
+    pub subjects: Vec<SubjectResult>,
+    /// Camera metamers among them.
+    pub metamers: Vec<MetamerPair>,
+}
+
+fn camera_settings(plan: &Plan) -> CameraSettings {
+    let c = &plan.camera;
+    let white_balance = match &c.white_balance {
+        WhiteBalanceSetting::Kelvin(k) => WhiteBalance::Kelvin { cct_k: *k },
+        WhiteBalanceSetting::Preset(p) => WhiteBalance::Preset {
+            preset: match p {
+                WbPreset::Daylight => lampwright_camera::WbPreset::Daylight,
+                WbPreset::Cloudy => lampwright_camera::WbPreset::Cloudy,
+                WbPreset::Shade => lampwright_camera::WbPreset::Shade,
+                WbPreset::Tungsten => lampwright_camera::WbPreset::Tungsten,
+                WbPreset::Fluorescent => lampwright_camera::WbPreset::Fluorescent,
+            },
+        },
+        WhiteBalanceSetting::GreyCard => WhiteBalance::GreyCard { subject: None },
+        WhiteBalanceSetting::AutoGreyWorld => WhiteBalance::GreyWorld,
+        WhiteBalanceSetting::AutoBrightestNeutral => WhiteBalance::BrightestNeutral,
+    };
+    CameraSettings {
+        white_balance,
+        matrix_mode: match c.matrix {
+            MatrixMode::Factory => lampwright_camera::MatrixMode::Factory,
+            MatrixMode::DualIlluminant => lampwright_camera::MatrixMode::DualIlluminant,
+            MatrixMode::SceneProfile => lampwright_camera::MatrixMode::SceneProfile,
+        },
+        fit_method: match c.fit {
+            FitMethod::Linear => lampwright_camera::FitMethod::Linear,
+            FitMethod::WhitePreserving => lampwright_camera::FitMethod::WhitePreserving,
+            FitMethod::De2000 => lampwright_camera::FitMethod::De2000 {
+                preserve_white: true,
+            },
+            FitMethod::RootPoly => lampwright_camera::FitMethod::RootPolynomial,
+        },
+        display: match plan.viewing.display {
+            Display::Srgb => DisplaySpace::Srgb,
+            Display::DisplayP3 => DisplaySpace::DisplayP3,
+        },
+    }
+}
+
+fn peak_normalised(values: &[f64]) -> Vec<f64> {
+    let peak = values.iter().copied().fold(0.0, f64::max);
+    if peak > 0.0 {
+        values.iter().map(|v| v / peak).collect()
+    } else {
+        values.to_vec()
+    }
+}
+
+impl CameraStage {
+    /// Set the camera up under the main zone's light.
+    pub fn new(
+        plan: &Plan,
+        main_light: &SpectralIrradiance,
+        subjects: &[ResolvedSubject],
+    ) -> Result<CameraStage> {
+        let camera = resolve::camera_sensitivities(plan, &plan.camera.camera)?;
+        let settings = camera_settings(plan);
+        let light = main_light.to_relative();
+        let main_raw_g = raw_of_light(&camera, &light)[1];
+        let main_y = xyz_sums(light.values(), Observer::cie1931_2deg()).y;
+        let channels = camera.channels();
+        let mut figures = CameraFigures {
+            name: camera.name.clone(),
+            sensitivities: [0, 1, 2].map(|i| peak_normalised(channels[i].values())),
+            luther_residual: luther_residual(&camera)?,
+            mu_factor: vora_trussell_mu(&camera)?,
+            wb_gains: [1.0; 3],
+            wb_cct_k: None,
+            matrix: [[0.0; 3]; 3],
+        };
+        let pipeline = if main_raw_g > DARK
+            && main_y > DARK
+            && light.check_colorimetric("the main zone").is_ok()
+        {
+            let p = CameraPipeline::new(&camera, &settings, &light, TrainingSet::standard()?)?;
+            let reflectances: Vec<_> = subjects.iter().map(|s| s.reflectance.clone()).collect();
+            let comparison = p.compare(&reflectances)?;
+            let g = comparison.white_balance.gains;
+            figures.wb_gains = [g.red, g.green, g.blue];
+            figures.wb_cct_k = match settings.white_balance {
+                WhiteBalance::Kelvin { cct_k } => Some(cct_k),
+                _ => comparison.estimated_cct_k,
+            };
+            let rows = comparison.correction.rows();
+            if rows.len() == 3 && rows.iter().all(|r| r.len() == 3) {
+                figures.matrix = [0, 1, 2].map(|i| [rows[i][0], rows[i][1], rows[i][2]]);
+            }
+            Some(p)
+        } else {
+            None
+        };
+        Ok(CameraStage {
+            camera,
+            pipeline,
+            main_raw_g,
+            main_y,
+            figures,
+        })
+    }
+
+    /// The camera's figures for the frame.
+    #[must_use]
+    pub fn figures(&self) -> &CameraFigures {
+        &self.figures
+    }
+
+    /// Render every subject under a zone's light.
+    pub fn render(
+        &self,
+        plan: &Plan,
+        zone_light: &SpectralIrradiance,
+        subjects: &[ResolvedSubject],
+        warnings: &mut Vec<String>,
+    ) -> Result<Rendered> {
+        let Some(pipeline) = &self.pipeline else {
+            return Ok(Rendered {
+                subjects: subjects
+                    .iter()
+                    .enumerate()
+                    .map(|(i, s)| black(plan, i, s))
+                    .collect(),
+                metamers: Vec::new(),
+            });
+        };
+        let light = zone_light.to_relative();
+        let raw_g = raw_of_light(&self.camera, &light)[1];
+        let y = xyz_sums(light.values(), Observer::cie1931_2deg()).y;
+        let signals: Vec<SubjectSignal> =
+            if raw_g > DARK && y > DARK && light.check_colorimetric("zone").is_ok() {
+                let scene = SceneResponse::new(&self.camera, &light, Observer::cie1931_2deg())?;
+                let (k_raw, k_y) = (raw_g / self.main_raw_g, y / self.main_y);
+                subjects
+                    .iter()
+                    .map(|s| {
+                        let sig = scene.subject(&s.reflectance);
+                        SubjectSignal {
+                            raw_rgb: sig.raw_rgb.map(|v| v * k_raw),
+                            xyz: sig.xyz.scaled(k_y),
+                        }
+                    })
+                    .collect()
+            } else {
+                subjects
+                    .iter()
+                    .map(|_| SubjectSignal {
+                        raw_rgb: [0.0; 3],
+                        xyz: lampwright_color::Xyz::default(),
+                    })
+                    .collect()
+            };
+        let comparison = pipeline.compare_signals(&signals)?;
+        let as_lit = plan.viewing.adaptation == Adaptation::AsLit;
+        let results: Vec<SubjectResult> = comparison
+            .subjects
+            .iter()
+            .zip(subjects)
+            .enumerate()
+            .map(|(i, (c, s))| result(plan, i, s, c, as_lit))
+            .collect();
+        if results.iter().any(|r| !r.de2000.is_finite()) {
+            warnings.push("a subject's colour difference could not be computed".into());
+        }
+        let m = camera_metamers(&comparison.subjects);
+        let name = |i: usize| subjects.get(i).map_or_else(String::new, |s| s.name.clone());
+        let metamers = m
+            .eye_matches_camera_splits
+            .iter()
+            .map(|p| (p, true))
+            .chain(m.camera_matches_eye_splits.iter().map(|p| (p, false)))
+            .map(|(p, eye_matches)| MetamerPair {
+                a: name(p.first),
+                b: name(p.second),
+                eye_de2000: p.delta_e_eye,
+                camera_de2000: p.delta_e_camera,
+                eye_matches,
+            })
+            .collect();
+        Ok(Rendered {
+            subjects: results,
+            metamers,
+        })
+    }
+}
+
+fn finite3(v: [f64; 3]) -> [f64; 3] {
+    v.map(|x| if x.is_finite() { x } else { 0.0 })
+}
+
+fn result(
+    plan: &Plan,
+    index: usize,
+    s: &ResolvedSubject,
+    c: &SubjectComparison,
+    as_lit: bool,
+) -> SubjectResult {
+    let (eye_lab, eye_display) = if as_lit {
+        (c.eye_lab_as_lit, c.eye_display_as_lit)
+    } else {
+        (c.eye_lab, c.eye_display)
+    };
+    let de = lampwright_color::delta_e::delta_e_ciede2000(eye_lab, c.camera_lab);
+    SubjectResult {
+        index,
+        name: s.name.clone(),
+        group: s.group.clone(),
+        included: plan.subjects.get(index).is_some_and(|e| e.included),
+        eye_lab: finite3([eye_lab.l, eye_lab.a, eye_lab.b]),
+        camera_lab: finite3([c.camera_lab.l, c.camera_lab.a, c.camera_lab.b]),
+        eye_rgb8: eye_display.to_rgb8_clamped(),
+        camera_rgb8: c.camera_display.to_rgb8_clamped(),
+        eye_in_gamut: eye_display.in_gamut,
+        camera_in_gamut: c.camera_display.in_gamut,
+        de2000: if de.is_finite() { de } else { 0.0 },
+    }
+}
+
+fn black(plan: &Plan, index: usize, s: &ResolvedSubject) -> SubjectResult {
+    SubjectResult {
+        index,
+        name: s.name.clone(),
+        group: s.group.clone(),
+        included: plan.subjects.get(index).is_some_and(|e| e.included),
+        eye_in_gamut: true,
+        camera_in_gamut: true,
+        ..SubjectResult::default()
+    }
+}

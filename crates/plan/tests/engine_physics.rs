@@ -1,0 +1,259 @@
+//! Physics with exact or well-known answers, checked through `evaluate`.
+
+use lampwright_plan::{
+    GelLayer, GelRef, LampRef, Plan, Source, SourceRole, SubjectEntry, SubjectRef, Zone, ZoneLevel,
+    ZoneReach, evaluate,
+};
+
+fn source(id: u32, name: &str, lamp: LampRef, lux: f64) -> Source {
+    Source {
+        id,
+        name: name.into(),
+        lamp,
+        level_lux: lux,
+        ..Source::default()
+    }
+}
+
+fn plan_with(sources: Vec<Source>) -> Plan {
+    Plan {
+        sources,
+        subjects: vec![
+            SubjectEntry {
+                subject: SubjectRef::Library("grey-card-18".into()),
+                ..SubjectEntry::default()
+            },
+            SubjectEntry {
+                subject: SubjectRef::Library("white-card".into()),
+                ..SubjectEntry::default()
+            },
+        ],
+        ..Plan::default()
+    }
+}
+
+fn gel(id: &str, strength: f64) -> GelLayer {
+    GelLayer {
+        gel: GelRef::Library(id.into()),
+        strength,
+    }
+}
+
+#[test]
+fn full_cto_turns_5500k_into_about_3200k() {
+    // Common practice: a full CTO converts 5500 K daylight to about 3200 K.
+    let mut s = source(1, "Key", LampRef::Blackbody { cct_k: 5500.0 }, 1000.0);
+    s.gels.push(gel("cto-full", 1.0));
+    let e = evaluate(&plan_with(vec![s])).unwrap();
+    let cct = e.light.cct_k.unwrap();
+    assert!((cct - 3200.0).abs() < 100.0, "{cct}");
+}
+
+#[test]
+fn nd_03_halves_the_light() {
+    // Common practice: ND 0.3 = one stop (transmission 10^-0.3 ≈ 0.501).
+    let mut s = source(1, "Key", LampRef::Blackbody { cct_k: 3200.0 }, 1000.0);
+    s.gels.push(gel("nd-03", 1.0));
+    let e = evaluate(&plan_with(vec![s])).unwrap();
+    assert!(
+        (e.light.illuminance_lux - 1000.0 * 10f64.powf(-0.3)).abs() < 1.0,
+        "{}",
+        e.light.illuminance_lux
+    );
+}
+
+#[test]
+fn two_half_sources_equal_one_full() {
+    let one = evaluate(&plan_with(vec![source(
+        1,
+        "Key",
+        LampRef::Library("tungsten-3200".into()),
+        800.0,
+    )]))
+    .unwrap();
+    let two = evaluate(&plan_with(vec![
+        source(1, "Key", LampRef::Library("tungsten-3200".into()), 400.0),
+        Source {
+            role: SourceRole::Fill,
+            ..source(2, "Key 2", LampRef::Library("tungsten-3200".into()), 400.0)
+        },
+    ]))
+    .unwrap();
+    assert!((one.light.illuminance_lux - two.light.illuminance_lux).abs() < 1e-9);
+    for (a, b) in one.light.spectrum.iter().zip(&two.light.spectrum) {
+        assert!((a - b).abs() <= 1e-12 * a.abs().max(1.0));
+    }
+    assert!((one.light.cct_k.unwrap() - two.light.cct_k.unwrap()).abs() < 1e-9);
+}
+
+#[test]
+fn level_is_illuminance_in_lux() {
+    let e = evaluate(&plan_with(vec![source(
+        1,
+        "Key",
+        LampRef::Daylight { cct_k: 5600.0 },
+        2500.0,
+    )]))
+    .unwrap();
+    assert!((e.light.illuminance_lux - 2500.0).abs() < 1e-9);
+    // EV100 = log2(E·100/250) (common practice, incident meter with C = 250).
+    assert!((e.light.ev100.unwrap() - (2500.0f64 * 100.0 / 250.0).log2()).abs() < 1e-9);
+}
+
+#[test]
+fn blackbody_mix_reads_its_own_temperature() {
+    let e = evaluate(&plan_with(vec![source(
+        1,
+        "Key",
+        LampRef::Blackbody { cct_k: 4300.0 },
+        500.0,
+    )]))
+    .unwrap();
+    assert!((e.light.cct_k.unwrap() - 4300.0).abs() < 1.0);
+    assert!(e.light.duv.unwrap().abs() < 1e-4);
+    assert!((e.light.mired.unwrap() - 1e6 / 4300.0).abs() < 0.1);
+}
+
+#[test]
+fn nothing_lit_gives_defined_results() {
+    let mut s = source(1, "Key", LampRef::Blackbody { cct_k: 3200.0 }, 1000.0);
+    s.enabled = false;
+    let e = evaluate(&plan_with(vec![s])).unwrap();
+    assert!(e.light.illuminance_lux.abs() < 1e-12);
+    assert!(e.light.cct_k.is_none());
+    assert!(!e.warnings.is_empty());
+    for s in &e.subjects {
+        assert!(s.de2000.is_finite());
+        assert!(s.eye_lab.iter().chain(&s.camera_lab).all(|v| v.is_finite()));
+    }
+}
+
+#[test]
+fn solo_lights_only_the_soloed_source() {
+    let key = source(1, "Key", LampRef::Blackbody { cct_k: 3200.0 }, 1000.0);
+    let mut fill = source(2, "Fill", LampRef::Blackbody { cct_k: 6500.0 }, 300.0);
+    fill.role = SourceRole::Fill;
+    fill.solo = true;
+    let e = evaluate(&plan_with(vec![key, fill])).unwrap();
+    assert!((e.light.illuminance_lux - 300.0).abs() < 1e-9);
+}
+
+#[test]
+fn key_fill_ratio_in_stops() {
+    let key = source(1, "Key", LampRef::Blackbody { cct_k: 3200.0 }, 1000.0);
+    let mut fill = source(2, "Fill", LampRef::Blackbody { cct_k: 3200.0 }, 250.0);
+    fill.role = SourceRole::Fill;
+    let e = evaluate(&plan_with(vec![key, fill])).unwrap();
+    let f = e.sources.iter().find(|s| s.name == "Fill").unwrap();
+    assert!((f.stops_from_key.unwrap() + 2.0).abs() < 1e-9);
+}
+
+#[test]
+fn one_zone_equals_no_zones() {
+    let base = plan_with(vec![
+        source(1, "Key", LampRef::Library("tungsten-3200".into()), 800.0),
+        Source {
+            role: SourceRole::Fill,
+            ..source(2, "Fill", LampRef::Daylight { cct_k: 5600.0 }, 200.0)
+        },
+    ]);
+    let mut zoned = base.clone();
+    zoned.zones = vec![Zone {
+        id: 1,
+        name: "Scene".into(),
+        reach: vec![
+            ZoneReach {
+                source: 1,
+                level: ZoneLevel::AsSource,
+            },
+            ZoneReach {
+                source: 2,
+                level: ZoneLevel::AsSource,
+            },
+        ],
+    }];
+    let a = evaluate(&base).unwrap();
+    let b = evaluate(&zoned).unwrap();
+    assert_eq!(a.light, b.light);
+    assert_eq!(a.subjects, b.subjects);
+    assert_eq!(a.summary, b.summary);
+}
+
+#[test]
+fn inverse_square_doubling_distance_costs_two_stops() {
+    // Inverse-square law: E = I / d² (exact), so 2× distance = ¼ light = −2 stops.
+    let near = lampwright_plan::engine::inverse_square_lux(4000.0, 1.5).unwrap();
+    let far = lampwright_plan::engine::inverse_square_lux(4000.0, 3.0).unwrap();
+    assert!(((far / near).log2() + 2.0).abs() < 1e-12);
+    assert!(lampwright_plan::engine::inverse_square_lux(4000.0, 0.0).is_none());
+}
+
+#[test]
+fn source_only_in_shadow_zone_leaves_key_side_alone() {
+    let mut plan = plan_with(vec![
+        source(1, "Key", LampRef::Daylight { cct_k: 5600.0 }, 1000.0),
+        Source {
+            role: SourceRole::Ambient,
+            ..source(2, "Street", LampRef::Library("hps-street".into()), 100.0)
+        },
+    ]);
+    let key_zone = Zone {
+        id: 1,
+        name: "Key side".into(),
+        reach: vec![ZoneReach {
+            source: 1,
+            level: ZoneLevel::AsSource,
+        }],
+    };
+    let shadow = Zone {
+        id: 2,
+        name: "Shadow side".into(),
+        reach: vec![
+            ZoneReach {
+                source: 1,
+                level: ZoneLevel::Stops(-3.0),
+            },
+            ZoneReach {
+                source: 2,
+                level: ZoneLevel::AsSource,
+            },
+        ],
+    };
+    plan.zones = vec![key_zone.clone()];
+    let alone = evaluate(&plan).unwrap();
+    plan.zones = vec![key_zone, shadow];
+    let both = evaluate(&plan).unwrap();
+    assert_eq!(alone.zones[0].light, both.zones[0].light);
+    assert_eq!(alone.zones[0].subjects, both.zones[0].subjects);
+    // The sodium-lit shadow side is far warmer than daylight and the engine says so.
+    let shadow = &both.zones[1];
+    assert!(shadow.light.cct_k.unwrap() < 4000.0);
+    assert!(
+        both.warnings
+            .iter()
+            .any(|w| w.contains("Shadow side") && w.contains("warmer")),
+        "{:?}",
+        both.warnings
+    );
+}
+
+#[test]
+fn perfect_white_under_grey_card_balance_is_neutral() {
+    // With a grey-card white balance and an adapted eye, a white card is neutral
+    // to both: a*, b* near zero.
+    let e = evaluate(&plan_with(vec![source(
+        1,
+        "Key",
+        LampRef::Library("tungsten-3200".into()),
+        1000.0,
+    )]))
+    .unwrap();
+    let white = e
+        .subjects
+        .iter()
+        .find(|s| s.name.to_lowercase().contains("white"))
+        .unwrap();
+    for lab in [white.eye_lab, white.camera_lab] {
+        assert!(lab[1].abs() < 0.5 && lab[2].abs() < 0.5, "{lab:?}");
+    }
+}
