@@ -272,6 +272,48 @@ def gen_cam02(rng):
     )
 
 
+def gen_rgb(rng):
+    from colour.models import eotf_inverse_sRGB, eotf_sRGB
+
+    srgb = colour.RGB_COLOURSPACES["sRGB"]
+    p3 = colour.RGB_COLOURSPACES["Display P3"]
+    # Like with like: the package's sRGB carries the IEC matrices rounded to 4 decimals;
+    # Lampwright derives them from the primaries, as the package does for Display P3.
+    derived = {
+        "sRGB": colour.RGB_Colourspace(
+            "sRGB derived", srgb.primaries, srgb.whitepoint, use_derived_matrix_RGB_to_XYZ=True,
+            use_derived_matrix_XYZ_to_RGB=True),
+        "DisplayP3": colour.RGB_Colourspace(
+            "Display P3 derived", p3.primaries, p3.whitepoint, use_derived_matrix_RGB_to_XYZ=True,
+            use_derived_matrix_XYZ_to_RGB=True),
+    }
+    rows = []
+    for name, m in (("sRGB_published", srgb.matrix_RGB_to_XYZ), ("sRGB_published_inverse", srgb.matrix_XYZ_to_RGB),
+                    ("DisplayP3_package", p3.matrix_RGB_to_XYZ)):
+        rows.append(["matrix", name, *m.ravel(), *([0.0] * 6)])
+    for name, space in derived.items():
+        rows.append(["matrix", name + "_derived", *space.matrix_RGB_to_XYZ.ravel(), *([0.0] * 6)])
+        for _ in range(20):
+            xyz = rng.uniform(0.0, 1.0, 3) * colour.xy_to_XYZ(space.whitepoint)
+            rgb = colour.XYZ_to_RGB(xyz, space, apply_cctf_encoding=False)
+            rows.append(["xyz_to_rgb", name, *([0.0] * 9), *xyz, *rgb])
+    for v in [0.0, 1e-4, 0.0031308, 0.003131, 0.01, 0.04045, 0.18, 0.5, 0.99, 1.0, 1.1, *rng.uniform(0, 1, 10)]:
+        rows.append(["transfer", "sRGB", *([0.0] * 9), v, 0.0, 0.0, eotf_inverse_sRGB(v), eotf_sRGB(v), 0.0])
+    write_csv(
+        "rgb_colour047.csv",
+        [
+            "RGB spaces. kind=matrix: RGB->XYZ (m11..m33): sRGB_published = RGB_COLOURSPACES['sRGB']",
+            "(the IEC 61966-2-1 matrix, 4 decimals), sRGB_published_inverse = its XYZ->RGB, DisplayP3_package",
+            "= RGB_COLOURSPACES['Display P3'], *_derived = derived from primaries and white by the package.",
+            "kind=xyz_to_rgb: XYZ (D65, Y = 1) -> linear RGB with the derived matrices (X,Y,Z -> a,b,c).",
+            "kind=transfer: v (X) -> eotf_inverse_sRGB(v) (a), eotf_sRGB(v) (b); negative values are not",
+            "included (the package extends the linear segment, Lampwright mirrors as CSS Color 4 does).",
+        ],
+        ["kind", "name", "m11", "m12", "m13", "m21", "m22", "m23", "m31", "m32", "m33", "X", "Y", "Z", "a", "b", "c"],
+        rows,
+    )
+
+
 def main():
     rng = np.random.default_rng(20240615)
     gen_spaces(rng)
@@ -279,6 +321,7 @@ def main():
     gen_delta_e(rng)
     gen_adaptation(rng)
     gen_cam02(rng)
+    gen_rgb(rng)
 
 
 if __name__ == "__main__":

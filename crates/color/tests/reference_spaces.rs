@@ -13,6 +13,7 @@ use lampwright_color::delta_e::{
     Cie1994Weights, Ciede2000Weights, delta_e_cie1976, delta_e_cie1994, delta_e_cie1994_weighted,
     delta_e_ciede2000, delta_e_ciede2000_weighted,
 };
+use lampwright_color::rgb::{DisplayP3, LinearRgb, RgbSpace, Srgb, srgb_decode, srgb_encode};
 use lampwright_color::spaces::{
     Lab, Luv, Uv1960, UvPrime, Xyy, uv_prime_from_xyz, uv1960_from_xyz,
 };
@@ -39,6 +40,14 @@ const TOL_CAT_XYZ: f64 = 1e-9;
 const TOL_CAM: f64 = 1e-9;
 /// CIECAM02 hue angle in degrees; loosened for near-neutral samples where atan2 is ill-conditioned.
 const TOL_CAM_HUE_DEG: f64 = 1e-6;
+
+/// Matrices derived from the same primaries, and linear RGB from them.
+const TOL_RGB: f64 = 1e-12;
+/// The IEC 61966-2-1 RGB → XYZ matrix is published to 4 decimals: half a unit.
+const TOL_IEC_MATRIX: f64 = 5e-5;
+/// Its published XYZ → RGB was inverted from the rounded forward matrix, which
+/// moves it by up to 4e-4 from the inverse of the exact matrix.
+const TOL_IEC_INVERSE: f64 = 5e-4;
 
 /// One fixture row, by column name.
 struct Row(HashMap<String, String>);
@@ -71,14 +80,14 @@ fn fixture(name: &str) -> Vec<Row> {
         .unwrap_or_else(|e| panic!("{path}: {e}"));
     let header: Vec<String> = reader
         .headers()
-        .unwrap()
+        .expect("fixture header")
         .iter()
         .map(str::to_string)
         .collect();
     let rows: Vec<Row> = reader
         .records()
         .map(|r| {
-            let r = r.unwrap();
+            let r = r.expect("fixture record");
             Row(header
                 .iter()
                 .cloned()
@@ -320,7 +329,14 @@ fn cam02_matches_colour_science() {
         close(&format!("{tag} a'"), jab[1], row.f("ap"), TOL_CAM);
         close(&format!("{tag} b'"), jab[2], row.f("bp"), TOL_CAM);
         if conditions == "tm30" {
-            assert_eq!(cam02_ucs_tm30(xyz, white).unwrap(), jab);
+            // The convenience function is the same computation: identical bits.
+            let direct = cam02_ucs_tm30(xyz, white).unwrap();
+            assert!(
+                direct
+                    .iter()
+                    .zip(jab)
+                    .all(|(a, b)| a.to_bits() == b.to_bits())
+            );
         }
         n += 1;
     }
@@ -328,4 +344,102 @@ fn cam02_matches_colour_science() {
         n >= 100 && n_quadrature >= 30,
         "{n} rows, {n_quadrature} with H compared"
     );
+}
+
+fn matrix_of(row: &Row) -> [[f64; 3]; 3] {
+    let mut m = [[0.0; 3]; 3];
+    for (r, m_row) in m.iter_mut().enumerate() {
+        for (c, v) in m_row.iter_mut().enumerate() {
+            *v = row.f(&format!("m{}{}", r + 1, c + 1));
+        }
+    }
+    m
+}
+
+fn check_matrix(tag: &str, got: &nalgebra::Matrix3<f64>, want: [[f64; 3]; 3], tol: f64) {
+    for (r, want_row) in want.iter().enumerate() {
+        for (c, w) in want_row.iter().enumerate() {
+            close(&format!("{tag} m{r}{c}"), got[(r, c)], *w, tol);
+        }
+    }
+}
+
+fn rgb_of<S: RgbSpace>(xyz: Xyz) -> [f64; 3] {
+    let rgb = LinearRgb::<S>::from_xyz_unclamped(xyz);
+    [rgb.r, rgb.g, rgb.b]
+}
+
+#[test]
+fn rgb_matches_iec_and_colour_science() {
+    let mut seen = HashMap::new();
+    for (i, row) in fixture("rgb_colour047.csv").iter().enumerate() {
+        let (kind, name) = (row.s("kind"), row.s("name"));
+        *seen.entry(format!("{kind}/{name}")).or_insert(0) += 1;
+        let tag = format!("row {i} {kind} {name}");
+        match (kind, name) {
+            // IEC 61966-2-1:1999 matrices as carried by the reference package.
+            ("matrix", "sRGB_published") => {
+                check_matrix(
+                    &tag,
+                    &Srgb::matrices().rgb_to_xyz,
+                    matrix_of(row),
+                    TOL_IEC_MATRIX,
+                );
+            }
+            ("matrix", "sRGB_published_inverse") => {
+                check_matrix(
+                    &tag,
+                    &Srgb::matrices().xyz_to_rgb,
+                    matrix_of(row),
+                    TOL_IEC_INVERSE,
+                );
+            }
+            ("matrix", "sRGB_derived") => {
+                check_matrix(&tag, &Srgb::matrices().rgb_to_xyz, matrix_of(row), TOL_RGB);
+            }
+            ("matrix", "DisplayP3_derived" | "DisplayP3_package") => {
+                check_matrix(
+                    &tag,
+                    &DisplayP3::matrices().rgb_to_xyz,
+                    matrix_of(row),
+                    TOL_RGB,
+                );
+            }
+            ("xyz_to_rgb", _) => {
+                let xyz = row.xyz("X", "Y", "Z");
+                let got = if name == "sRGB" {
+                    rgb_of::<Srgb>(xyz)
+                } else {
+                    rgb_of::<DisplayP3>(xyz)
+                };
+                for (k, col) in ["a", "b", "c"].iter().enumerate() {
+                    close(&format!("{tag} {col}"), got[k], row.f(col), TOL_RGB);
+                }
+            }
+            ("transfer", "sRGB") => {
+                let v = row.f("X");
+                close(
+                    &format!("{tag} encode({v})"),
+                    srgb_encode(v),
+                    row.f("a"),
+                    TOL_RGB,
+                );
+                // At exactly V = 0.04045 IEC 61966-2-1 takes the linear branch (≤) and the
+                // package the power branch; the two differ there by 2.3e-9.
+                let tol = if (v - 0.04045).abs() < 1e-15 {
+                    3e-9
+                } else {
+                    TOL_RGB
+                };
+                close(
+                    &format!("{tag} decode({v})"),
+                    srgb_decode(v),
+                    row.f("b"),
+                    tol,
+                );
+            }
+            other => panic!("unexpected row {other:?}"),
+        }
+    }
+    assert_eq!(seen.len(), 8, "{seen:?}");
 }
