@@ -48,7 +48,9 @@ pub fn planckian(t_kelvin: f64) -> Result<RelativeSpd> {
 pub fn cie_a() -> RelativeSpd {
     // The formula keeps the historical c2 = 1.435e-2 m·K and T = 2848 K.
     let c: f64 = 1.435e7 / (2848.0 * 560.0);
-    RelativeSpd::from_fn(|wl| 100.0 * (560.0 / wl).powi(5) * c.exp_m1() / (1.435e7 / (2848.0 * wl)).exp_m1())
+    RelativeSpd::from_fn(|wl| {
+        100.0 * (560.0 / wl).powi(5) * c.exp_m1() / (1.435e7 / (2848.0 * wl)).exp_m1()
+    })
 }
 
 /// Chromaticity (x, y) of CIE daylight at correlated colour temperature `t_kelvin`
@@ -84,7 +86,11 @@ static DAYLIGHT_BASIS: LazyLock<Option<DaylightBasis>> = LazyLock::new(|| {
     .ok()?;
     Some(DaylightBasis {
         wavelengths_nm: t.wavelengths_nm.clone(),
-        s: [t.columns.first()?.clone(), t.columns.get(1)?.clone(), t.columns.get(2)?.clone()],
+        s: [
+            t.columns.first()?.clone(),
+            t.columns.get(1)?.clone(),
+            t.columns.get(2)?.clone(),
+        ],
     })
 });
 
@@ -190,7 +196,9 @@ impl StandardIlluminant {
             Some(rest) if !rest.contains('.') => format!("F{rest}"),
             _ => wanted,
         };
-        Self::all().into_iter().find(|s| s.name().to_ascii_uppercase() == wanted)
+        Self::all()
+            .into_iter()
+            .find(|s| s.name().to_ascii_uppercase() == wanted)
     }
 
     /// Nominal CCT for the D series in K (CIE 15: 5003, 5503, 6504, 7504 K).
@@ -244,7 +252,10 @@ type Tables = HashMap<String, (Vec<f64>, Vec<f64>)>;
 static TABLES: LazyLock<Result<Tables>> = LazyLock::new(|| {
     let mut map = HashMap::new();
     for (name, text) in [
-        ("cie_illuminants_a_d.csv", include_str!("../../../assets/standard/cie_illuminants_a_d.csv")),
+        (
+            "cie_illuminants_a_d.csv",
+            include_str!("../../../assets/standard/cie_illuminants_a_d.csv"),
+        ),
         (
             "cie_illuminants_f_hp_led.csv",
             include_str!("../../../assets/standard/cie_illuminants_f_hp_led.csv"),
@@ -291,7 +302,11 @@ mod tests {
         let a = cie_a();
         for (w, t) in wl.iter().zip(&v) {
             if *w >= 360.0 {
-                assert!((a.at_nm(*w) - t).abs() < 1e-3 * t.max(1.0), "A at {w}: {} vs {t}", a.at_nm(*w));
+                assert!(
+                    (a.at_nm(*w) - t).abs() < 1e-3 * t.max(1.0),
+                    "A at {w}: {} vs {t}",
+                    a.at_nm(*w)
+                );
             }
         }
     }
@@ -304,7 +319,11 @@ mod tests {
         let d = daylight(6500.0 * 1.4388 / 1.4380).unwrap();
         for (w, t) in wl.iter().zip(&v) {
             if *w >= 360.0 {
-                assert!((d.at_nm(*w) - t).abs() < 0.02 * t.max(10.0), "D65 at {w}: {} vs {t}", d.at_nm(*w));
+                assert!(
+                    (d.at_nm(*w) - t).abs() < 0.02 * t.max(10.0),
+                    "D65 at {w}: {} vs {t}",
+                    d.at_nm(*w)
+                );
             }
         }
         assert!(daylight(3000.0).is_err());
@@ -317,7 +336,10 @@ mod tests {
             assert!(spd.check_colorimetric(&s.name()).is_ok(), "{}", s.name());
             assert_eq!(StandardIlluminant::from_name(&s.name()), Some(s));
         }
-        assert_eq!(StandardIlluminant::from_name("fl2"), Some(StandardIlluminant::F(2)));
+        assert_eq!(
+            StandardIlluminant::from_name("fl2"),
+            Some(StandardIlluminant::F(2))
+        );
         assert_eq!(StandardIlluminant::all().len(), 46);
     }
 }

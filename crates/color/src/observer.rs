@@ -10,7 +10,9 @@ use crate::table::AssetTable;
 use std::sync::LazyLock;
 
 /// Which standard observer.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Default, serde::Serialize, serde::Deserialize)]
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Hash, Default, serde::Serialize, serde::Deserialize,
+)]
 pub enum ObserverKind {
     /// CIE 1931 2° standard observer (the default for colorimetry of small fields).
     #[default]
@@ -56,20 +58,31 @@ fn load(kind: ObserverKind, name: &str, text: &str) -> Observer {
         y_bar: [0.0; GRID_LEN],
         z_bar: [0.0; GRID_LEN],
     };
-    if let Ok(t) = AssetTable::parse(name, text) {
-        if t.wavelengths_nm.len() == GRID_LEN && t.columns.len() == 3 {
-            obs.x_bar.copy_from_slice(&t.columns[0]);
-            obs.y_bar.copy_from_slice(&t.columns[1]);
-            obs.z_bar.copy_from_slice(&t.columns[2]);
-        }
+    if let Ok(t) = AssetTable::parse(name, text)
+        && t.wavelengths_nm.len() == GRID_LEN
+        && t.columns.len() == 3
+    {
+        obs.x_bar.copy_from_slice(&t.columns[0]);
+        obs.y_bar.copy_from_slice(&t.columns[1]);
+        obs.z_bar.copy_from_slice(&t.columns[2]);
     }
     obs
 }
 
-static CIE1931: LazyLock<Observer> =
-    LazyLock::new(|| load(ObserverKind::Cie1931TwoDegree, "cie1931_2deg_cmfs.csv", CIE1931_CSV));
-static CIE1964: LazyLock<Observer> =
-    LazyLock::new(|| load(ObserverKind::Cie1964TenDegree, "cie1964_10deg_cmfs.csv", CIE1964_CSV));
+static CIE1931: LazyLock<Observer> = LazyLock::new(|| {
+    load(
+        ObserverKind::Cie1931TwoDegree,
+        "cie1931_2deg_cmfs.csv",
+        CIE1931_CSV,
+    )
+});
+static CIE1964: LazyLock<Observer> = LazyLock::new(|| {
+    load(
+        ObserverKind::Cie1964TenDegree,
+        "cie1964_10deg_cmfs.csv",
+        CIE1964_CSV,
+    )
+});
 
 impl Observer {
     /// The CIE 1931 2° standard observer.
@@ -88,7 +101,8 @@ impl Observer {
     #[must_use]
     pub fn as_sensitivities(&self) -> [Sensitivity; 3] {
         [&self.x_bar, &self.y_bar, &self.z_bar].map(|c| {
-            Sensitivity::from_grid(*c, Coverage::FULL).unwrap_or_else(|_| Sensitivity::from_fn(|_| 0.0))
+            Sensitivity::from_grid(*c, Coverage::FULL)
+                .unwrap_or_else(|_| Sensitivity::from_fn(|_| 0.0))
         })
     }
 }

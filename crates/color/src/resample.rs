@@ -79,10 +79,15 @@ fn validate(wavelengths_nm: &[f64], values: &[f64]) -> Result<()> {
     }
     for (i, (wl, v)) in wavelengths_nm.iter().zip(values).enumerate() {
         if !wl.is_finite() {
-            return Err(ColorError::InvalidInput(format!("wavelength #{} is not a finite number", i + 1)));
+            return Err(ColorError::InvalidInput(format!(
+                "wavelength #{} is not a finite number",
+                i + 1
+            )));
         }
         if !v.is_finite() {
-            return Err(ColorError::InvalidInput(format!("value at {wl} nm is not a finite number")));
+            return Err(ColorError::InvalidInput(format!(
+                "value at {wl} nm is not a finite number"
+            )));
         }
         if i > 0 && *wl <= wavelengths_nm[i - 1] {
             return Err(ColorError::InvalidInput(format!(
@@ -124,14 +129,19 @@ impl Sprague {
 
     fn new(start: f64, step: f64, y: &[f64]) -> Self {
         let n = y.len();
-        let dot = |c: &[f64; 6], s: &[f64]| c.iter().zip(s).map(|(a, b)| a * b).sum::<f64>() / 209.0;
+        let dot =
+            |c: &[f64; 6], s: &[f64]| c.iter().zip(s).map(|(a, b)| a * b).sum::<f64>() / 209.0;
         let mut padded = Vec::with_capacity(n + 4);
         padded.push(dot(&Self::LEFT[0], &y[..6]));
         padded.push(dot(&Self::LEFT[1], &y[..6]));
         padded.extend_from_slice(y);
         padded.push(dot(&Self::RIGHT[0], &y[n - 6..]));
         padded.push(dot(&Self::RIGHT[1], &y[n - 6..]));
-        Sprague { start, step, padded }
+        Sprague {
+            start,
+            step,
+            padded,
+        }
     }
 
     fn at(&self, wl: f64) -> f64 {
@@ -147,9 +157,13 @@ impl Sprague {
         let a0 = p[2];
         let a1 = (2.0 * p[0] - 16.0 * p[1] + 16.0 * p[3] - 2.0 * p[4]) / 24.0;
         let a2 = (-p[0] + 16.0 * p[1] - 30.0 * p[2] + 16.0 * p[3] - p[4]) / 24.0;
-        let a3 = (-9.0 * p[0] + 39.0 * p[1] - 70.0 * p[2] + 66.0 * p[3] - 33.0 * p[4] + 7.0 * p[5]) / 24.0;
-        let a4 = (13.0 * p[0] - 64.0 * p[1] + 126.0 * p[2] - 124.0 * p[3] + 61.0 * p[4] - 12.0 * p[5]) / 24.0;
-        let a5 = (-5.0 * p[0] + 25.0 * p[1] - 50.0 * p[2] + 50.0 * p[3] - 25.0 * p[4] + 5.0 * p[5]) / 24.0;
+        let a3 = (-9.0 * p[0] + 39.0 * p[1] - 70.0 * p[2] + 66.0 * p[3] - 33.0 * p[4] + 7.0 * p[5])
+            / 24.0;
+        let a4 = (13.0 * p[0] - 64.0 * p[1] + 126.0 * p[2] - 124.0 * p[3] + 61.0 * p[4]
+            - 12.0 * p[5])
+            / 24.0;
+        let a5 = (-5.0 * p[0] + 25.0 * p[1] - 50.0 * p[2] + 50.0 * p[3] - 25.0 * p[4] + 5.0 * p[5])
+            / 24.0;
         a0 + x * (a1 + x * (a2 + x * (a3 + x * (a4 + x * a5))))
     }
 }
@@ -213,7 +227,10 @@ impl Pchip {
         let h10 = t3 - 2.0 * t2 + t;
         let h01 = -2.0 * t3 + 3.0 * t2;
         let h11 = t3 - t2;
-        h00 * self.y[k] + h10 * h * self.slopes[k] + h01 * self.y[k + 1] + h11 * h * self.slopes[k + 1]
+        h00 * self.y[k]
+            + h10 * h * self.slopes[k]
+            + h01 * self.y[k + 1]
+            + h11 * h * self.slopes[k + 1]
     }
 }
 
@@ -229,13 +246,21 @@ mod tests {
     fn sprague_reproduces_quintic_exactly() {
         // Sprague interpolation is exact for polynomials up to degree 5 inside the data
         // (a property of the method, Westland et al. 2012 §5.2).
-        let f = |x: f64| 1.0 + 0.3 * (x / 100.0) - 0.02 * (x / 100.0).powi(3) + 0.001 * (x / 100.0).powi(5);
+        let f = |x: f64| {
+            1.0 + 0.3 * (x / 100.0) - 0.02 * (x / 100.0).powi(3) + 0.001 * (x / 100.0).powi(5)
+        };
         let wl: Vec<f64> = (0..=80).map(|i| 380.0 + 5.0 * f64::from(i)).collect();
         let v: Vec<f64> = wl.iter().map(|w| f(*w)).collect();
         let (grid, cov) = to_grid(&wl, &v).unwrap();
-        assert_eq!(cov, Coverage { start_nm: 380.0, end_nm: 780.0 });
+        assert_eq!(
+            cov,
+            Coverage {
+                start_nm: 380.0,
+                end_nm: 780.0
+            }
+        );
         // Near the ends the CIE 167 boundary extension is a smoothing fit, not exact.
-    for w in 391..770 {
+        for w in 391..770 {
             let w = f64::from(w);
             assert!((at(&grid, w) - f(w)).abs() < 1e-9, "at {w}");
         }

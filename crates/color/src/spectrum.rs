@@ -89,7 +89,7 @@ impl Curve {
         }
     }
 
-    fn from_grid(values: [f64; GRID_LEN], coverage: Coverage) -> Result<Self> {
+    fn from_grid(values: &[f64; GRID_LEN], coverage: Coverage) -> Result<Self> {
         if let Some(i) = values.iter().position(|v| !v.is_finite()) {
             return Err(ColorError::InvalidInput(format!(
                 "value at {} nm is not a finite number",
@@ -97,14 +97,14 @@ impl Curve {
             )));
         }
         Ok(Curve {
-            values: Box::new(values),
+            values: Box::new(*values),
             coverage,
         })
     }
 
     fn from_samples(wavelengths_nm: &[f64], values: &[f64]) -> Result<Self> {
         let (grid, coverage) = resample::to_grid(wavelengths_nm, values)?;
-        Self::from_grid(grid, coverage)
+        Self::from_grid(&grid, coverage)
     }
 
     /// The values on the grid, 360–830 nm at 1 nm.
@@ -134,13 +134,20 @@ impl Curve {
     /// Largest value on the grid.
     #[must_use]
     pub fn max_value(&self) -> f64 {
-        self.values.iter().copied().fold(f64::NEG_INFINITY, f64::max)
+        self.values
+            .iter()
+            .copied()
+            .fold(f64::NEG_INFINITY, f64::max)
     }
 
     /// Sum over the grid of `self × other` (Δλ = 1 nm).
     #[must_use]
     pub fn dot(&self, other: &[f64; GRID_LEN]) -> f64 {
-        self.values.iter().zip(other.iter()).map(|(a, b)| a * b).sum()
+        self.values
+            .iter()
+            .zip(other.iter())
+            .map(|(a, b)| a * b)
+            .sum()
     }
 
     /// Whether every value is zero (or negative): nothing to measure.
@@ -151,7 +158,11 @@ impl Curve {
 
     fn zip_with(&self, other: &Curve, f: impl Fn(f64, f64) -> f64) -> Curve {
         let mut values = Box::new([0.0; GRID_LEN]);
-        for ((o, a), b) in values.iter_mut().zip(self.values.iter()).zip(other.values.iter()) {
+        for ((o, a), b) in values
+            .iter_mut()
+            .zip(self.values.iter())
+            .zip(other.values.iter())
+        {
             *o = f(*a, *b);
         }
         Curve {
@@ -179,7 +190,9 @@ impl Curve {
             reason,
         };
         if self.values.iter().any(|v| !v.is_finite()) {
-            return Err(refuse("it holds a value that is not a finite number".into()));
+            return Err(refuse(
+                "it holds a value that is not a finite number".into(),
+            ));
         }
         if self.is_dark() {
             return Err(refuse("it is zero at every wavelength".into()));
@@ -208,7 +221,7 @@ macro_rules! curve_type {
 
             /// Build from values already on the grid (360–830 nm, 1 nm).
             pub fn from_grid(values: [f64; GRID_LEN], coverage: Coverage) -> Result<Self> {
-                Curve::from_grid(values, coverage).map(Self)
+                Curve::from_grid(&values, coverage).map(Self)
             }
 
             /// Resample measured data (strictly increasing wavelengths in nm) onto
@@ -264,7 +277,9 @@ impl RelativeSpd {
     /// Weighted sum of lights, `Σ wᵢ·Sᵢ` (mixing sources at levels `wᵢ`).
     /// An empty list gives a dark spectrum.
     #[must_use]
-    pub fn weighted_sum<'a>(parts: impl IntoIterator<Item = (f64, &'a RelativeSpd)>) -> RelativeSpd {
+    pub fn weighted_sum<'a>(
+        parts: impl IntoIterator<Item = (f64, &'a RelativeSpd)>,
+    ) -> RelativeSpd {
         let mut values = Box::new([0.0; GRID_LEN]);
         let mut coverage: Option<Coverage> = None;
         for (w, spd) in parts {
@@ -299,8 +314,18 @@ impl Transmittance {
     /// linearly with the amount of dye (Beer–Lambert). `f = 0` is clear glass.
     #[must_use]
     pub fn strength(&self, fraction: f64) -> Transmittance {
-        let f = if fraction.is_finite() { fraction.max(0.0) } else { 0.0 };
-        Transmittance(self.0.map(|t| if t <= 0.0 { if f == 0.0 { 1.0 } else { 0.0 } } else { t.powf(f) }))
+        let f = if fraction.is_finite() {
+            fraction.max(0.0)
+        } else {
+            0.0
+        };
+        Transmittance(self.0.map(|t| {
+            if t <= 0.0 {
+                if f == 0.0 { 1.0 } else { 0.0 }
+            } else {
+                t.powf(f)
+            }
+        }))
     }
 
     /// A perfectly clear filter (T = 1 everywhere).
@@ -382,7 +407,13 @@ mod tests {
         let spd = RelativeSpd::from_samples(&[380.0, 780.0], &[1.0, 1.0]).unwrap();
         let t = Transmittance::from_samples(&[400.0, 700.0], &[0.5, 0.5]).unwrap();
         let out = &spd * &t;
-        assert_eq!(out.coverage(), Coverage { start_nm: 400.0, end_nm: 700.0 });
+        assert_eq!(
+            out.coverage(),
+            Coverage {
+                start_nm: 400.0,
+                end_nm: 700.0
+            }
+        );
         assert!((out.at_nm(550.0) - 0.5).abs() < 1e-12);
         assert!(!out.coverage().covers_visible());
     }
@@ -411,8 +442,15 @@ mod tests {
         let dark = RelativeSpd::from_fn(|_| 0.0);
         assert!(dark.check_colorimetric("lamp").is_err());
         let short = RelativeSpd::from_samples(&[500.0, 600.0], &[1.0, 1.0]).unwrap();
-        let err = short.check_colorimetric("lamp 'x'").unwrap_err().to_string();
+        let err = short
+            .check_colorimetric("lamp 'x'")
+            .unwrap_err()
+            .to_string();
         assert!(err.contains("500–600 nm"), "{err}");
-        assert!(RelativeSpd::from_fn(|_| 1.0).check_colorimetric("lamp").is_ok());
+        assert!(
+            RelativeSpd::from_fn(|_| 1.0)
+                .check_colorimetric("lamp")
+                .is_ok()
+        );
     }
 }

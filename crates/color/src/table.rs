@@ -47,14 +47,20 @@ impl AssetTable {
             match &names {
                 None => {
                     if cells.len() < 2 {
-                        return Err(err(line_no, "header needs a wavelength column and at least one value column".into()));
+                        return Err(err(
+                            line_no,
+                            "header needs a wavelength column and at least one value column".into(),
+                        ));
                     }
                     names = Some(cells[1..].iter().map(|s| (*s).to_string()).collect());
                     columns = vec![Vec::new(); cells.len() - 1];
                 }
                 Some(n) => {
                     if cells.len() != n.len() + 1 {
-                        return Err(err(line_no, format!("expected {} cells, found {}", n.len() + 1, cells.len())));
+                        return Err(err(
+                            line_no,
+                            format!("expected {} cells, found {}", n.len() + 1, cells.len()),
+                        ));
                     }
                     let parse = |s: &str| -> Result<f64> {
                         s.parse::<f64>()
@@ -97,7 +103,11 @@ mod tests {
 
     #[test]
     fn parses_source_header_and_rows() {
-        let t = AssetTable::parse("t.csv", "# From a standard\nwavelength_nm,a,b\n380,1,2\n385,3,4\n").unwrap();
+        let t = AssetTable::parse(
+            "t.csv",
+            "# From a standard\nwavelength_nm,a,b\n380,1,2\n385,3,4\n",
+        )
+        .unwrap();
         assert_eq!(t.source, vec!["From a standard"]);
         assert_eq!(t.names, vec!["a", "b"]);
         assert_eq!(t.column("b").unwrap(), &[2.0, 4.0]);
@@ -106,7 +116,9 @@ mod tests {
 
     #[test]
     fn reports_line_of_bad_cell() {
-        let e = AssetTable::parse("t.csv", "w,a\n380,1\n385,x\n").unwrap_err().to_string();
+        let e = AssetTable::parse("t.csv", "w,a\n380,1\n385,x\n")
+            .unwrap_err()
+            .to_string();
         assert!(e.contains("t.csv: line 3"), "{e}");
         assert!(AssetTable::parse("t.csv", "w,a\n380,1,2\n").is_err());
         assert!(AssetTable::parse("t.csv", "w,a\n").is_err());

@@ -43,7 +43,11 @@ impl Xyz {
     /// From an array `[X, Y, Z]`.
     #[must_use]
     pub const fn from_array(a: [f64; 3]) -> Xyz {
-        Xyz { x: a[0], y: a[1], z: a[2] }
+        Xyz {
+            x: a[0],
+            y: a[1],
+            z: a[2],
+        }
     }
 
     /// Every component multiplied by `k`.
@@ -55,7 +59,11 @@ impl Xyz {
     /// Scaled so that Y = `y`. A zero Y gives zero.
     #[must_use]
     pub fn with_y(self, y: f64) -> Xyz {
-        if self.y == 0.0 { Xyz::default() } else { self.scaled(y / self.y) }
+        if self.y == 0.0 {
+            Xyz::default()
+        } else {
+            self.scaled(y / self.y)
+        }
     }
 
     /// Whether all components are finite.
@@ -76,11 +84,15 @@ impl Xyz {
 #[must_use]
 pub fn xyz_sums(values: &[f64; GRID_LEN], observer: &Observer) -> Xyz {
     let (mut x, mut y, mut z) = (0.0, 0.0, 0.0);
-    for i in 0..GRID_LEN {
-        let s = values[i];
-        x += s * observer.x_bar[i];
-        y += s * observer.y_bar[i];
-        z += s * observer.z_bar[i];
+    for (((s, xb), yb), zb) in values
+        .iter()
+        .zip(&observer.x_bar)
+        .zip(&observer.y_bar)
+        .zip(&observer.z_bar)
+    {
+        x += s * xb;
+        y += s * yb;
+        z += s * zb;
     }
     Xyz::new(x, y, z)
 }
@@ -102,7 +114,12 @@ pub fn xyz_of_light(spd: &RelativeSpd, observer: &Observer, what: &str) -> Resul
 }
 
 /// XYZ of a surface under a light, relative: Y = 100 for the perfect reflecting diffuser.
-pub fn xyz_of_object(light: &RelativeSpd, reflectance: &Reflectance, observer: &Observer, what: &str) -> Result<Xyz> {
+pub fn xyz_of_object(
+    light: &RelativeSpd,
+    reflectance: &Reflectance,
+    observer: &Observer,
+    what: &str,
+) -> Result<Xyz> {
     light.check_colorimetric(what)?;
     let white_y = xyz_sums(light.values(), observer).y;
     if white_y <= 0.0 {
@@ -145,14 +162,24 @@ mod tests {
             (StandardIlluminant::D50, 0.34567, 0.35851),
         ] {
             let (x, y) = xy(ill);
-            assert!((x - x0).abs() < 5e-5 && (y - y0).abs() < 5e-5, "{}: {x} {y}", ill.name());
+            assert!(
+                (x - x0).abs() < 5e-5 && (y - y0).abs() < 5e-5,
+                "{}: {x} {y}",
+                ill.name()
+            );
         }
     }
 
     #[test]
     fn perfect_white_has_y_100() {
         let d65 = StandardIlluminant::D65.spd().unwrap();
-        let w = xyz_of_object(&d65, &Reflectance::perfect_white(), Observer::cie1931_2deg(), "t").unwrap();
+        let w = xyz_of_object(
+            &d65,
+            &Reflectance::perfect_white(),
+            Observer::cie1931_2deg(),
+            "t",
+        )
+        .unwrap();
         assert!((w.y - 100.0).abs() < 1e-9);
     }
 
