@@ -52,11 +52,11 @@ fn irregular_700_points() -> (Vec<f64>, Vec<f64>) {
 fn bench_import(c: &mut Criterion) {
     let csv = csv_1nm_three_columns();
     c.bench_function("import_bytes 1 nm CSV 471x3", |b| {
-        b.iter(|| import_bytes("bench.csv", black_box(&csv), SpectrumKind::Lamp))
+        b.iter(|| import_bytes("bench.csv", black_box(&csv), SpectrumKind::Lamp));
     });
     let (wavelengths, values) = irregular_700_points();
     c.bench_function("RelativeSpd::from_samples irregular 700 points", |b| {
-        b.iter(|| RelativeSpd::from_samples(black_box(&wavelengths), black_box(&values)))
+        b.iter(|| RelativeSpd::from_samples(black_box(&wavelengths), black_box(&values)));
     });
 }
 
