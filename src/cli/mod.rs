@@ -3,7 +3,6 @@
 //! Each subcommand lives in its own module with a clap `Args` struct and a
 //! `run(args) -> anyhow::Result<ExitCode>` function.
 
-pub mod delta_e;
 pub mod lamp;
 
 use clap::{Parser, Subcommand};
@@ -20,29 +19,16 @@ pub struct Cli {
 /// The subcommands. With none, the window opens.
 #[derive(Debug, Subcommand)]
 pub enum Command {
-    /// Open a plan file in the window.
-    Open {
-        /// The plan file (.ron).
-        plan: std::path::PathBuf,
-    },
     /// Lamp figures of measured spectra: chromaticity, CCT, Duv, CRI, TM-30, SSI.
     Lamp(lamp::LampArgs),
-    /// Colour differences ΔE76, ΔE94 and ΔE2000 of CIELAB pairs in a CSV file.
-    DeltaE(delta_e::DeltaEArgs),
 }
 
 /// Run the parsed command line.
 pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
     match cli.command {
-        None => open_window(None),
-        Some(Command::Open { plan }) => open_window(Some(plan)),
+        None => {
+            anyhow::bail!("the window is not built yet; see `lampwright --help` for the subcommands")
+        }
         Some(Command::Lamp(args)) => lamp::run(&args),
-        Some(Command::DeltaE(args)) => delta_e::run(&args),
     }
-}
-
-/// Open the window, on a plan file or on the built-in demo plan.
-fn open_window(plan: Option<std::path::PathBuf>) -> anyhow::Result<ExitCode> {
-    lampwright::ui::run(lampwright::ui::StartOptions::from_env(plan))?;
-    Ok(ExitCode::SUCCESS)
 }
