@@ -15,7 +15,11 @@
 //! white-preserving form, so grey stays grey after correction.
 //!
 //! Every accepted step lowers the cost, so the result is never worse (in
-//! Σ ΔE00²) than its starting matrix.
+//! Σ ΔE00²) than its starting matrix. CIEDE2000 saturates for colours far off
+//! target (its weights `S_L`, `S_C`, `S_H` grow with L* and C*), so a free search
+//! could push badly fitted samples towards infinity to gain on the others; the
+//! search is therefore kept within a Frobenius distance of ‖M₀‖ of the start
+//! M₀ (steps leaving that region are rejected like steps that raise the cost).
 //!
 //! # References
 //! - Marquardt, D. W. (1963), *An algorithm for least-squares estimation of
@@ -112,30 +116,9 @@ fn cost(r: &[f64]) -> f64 {
     r.iter().map(|v| v * v).sum()
 }
 
-/// CIEDE2000-minimising 3×3 matrix (rows map RGB to X, Y, Z); see the module docs.
-pub fn fit_de2000(data: &FitData, preserve_white: bool) -> Result<[[f64; 3]; 3]> {
-    let para = if preserve_white {
-        let start = fit_white_preserving(&data.rgb, &data.xyz, data.white_rgb, data.white_xyz)?;
-        Parametrisation::white_preserving(start, data.white_rgb)?
-    } else {
-        Parametrisation::full(fit_linear_ls(&data.rgb, &data.xyz)?)
-    };
-    let white = Xyz::from_array(data.white_xyz);
-    if !is_positive(white.y) {
-        return Err(CameraError::InvalidInput(
-            "the reference white must have Y > 0".into(),
-        ));
-    }
-    let problem = Problem {
-        rgb: &data.rgb,
-        target_lab: data
-            .xyz
-            .iter()
-            .map(|x| Lab::from_xyz(Xyz::from_array(*x), white))
-            .collect(),
-        white,
-    };
-    let n = data.rgb.len();
+/// Minimise Σ rᵢ² over the parameters of `para` from zero; returns the parameters.
+fn levenberg_marquardt(problem: &Problem, para: &Parametrisation) -> Vec<f64> {
+    let n = problem.rgb.len();
     let np = para.directions.len();
     let mut p = vec![0.0; np];
     let mut r = vec![0.0; n];
@@ -144,6 +127,23 @@ pub fn fit_de2000(data: &FitData, preserve_white: bool) -> Result<[[f64; 3]; 3]>
     let mut lambda = 1e-3;
     let (mut r_plus, mut r_minus) = (vec![0.0; n], vec![0.0; n]);
     let mut jac = DMatrix::<f64>::zeros(n, np);
+    let start_norm = para
+        .start
+        .iter()
+        .flatten()
+        .map(|v| v * v)
+        .sum::<f64>()
+        .sqrt();
+    let within_region = |q: &[f64]| {
+        let m = para.matrix(q);
+        let d2: f64 = m
+            .iter()
+            .flatten()
+            .zip(para.start.iter().flatten())
+            .map(|(a, b)| (a - b) * (a - b))
+            .sum();
+        d2.sqrt() <= start_norm
+    };
     for _ in 0..MAX_ITERATIONS {
         if current == 0.0 {
             break;
@@ -173,6 +173,10 @@ pub fn fit_de2000(data: &FitData, preserve_white: bool) -> Result<[[f64; 3]; 3]>
                 continue;
             };
             let trial: Vec<f64> = p.iter().zip(step.iter()).map(|(a, b)| a + b).collect();
+            if !within_region(&trial) {
+                lambda *= 10.0;
+                continue;
+            }
             problem.residuals(&para.matrix(&trial), &mut r_plus);
             let c = cost(&r_plus);
             if c.is_finite() && c < current {
@@ -190,7 +194,46 @@ pub fn fit_de2000(data: &FitData, preserve_white: bool) -> Result<[[f64; 3]; 3]>
             break;
         }
     }
-    let m = para.matrix(&p);
+    p
+}
+
+/// CIEDE2000-minimising 3×3 matrix (rows map RGB to X, Y, Z); see the module docs.
+pub fn fit_de2000(data: &FitData, preserve_white: bool) -> Result<[[f64; 3]; 3]> {
+    let para = if preserve_white {
+        let start = fit_white_preserving(&data.rgb, &data.xyz, data.white_rgb, data.white_xyz)?;
+        Parametrisation::white_preserving(start, data.white_rgb)?
+    } else {
+        Parametrisation::full(fit_linear_ls(&data.rgb, &data.xyz)?)
+    };
+    let white = Xyz::from_array(data.white_xyz);
+    if !is_positive(white.y) {
+        return Err(CameraError::InvalidInput(
+            "the reference white must have Y > 0".into(),
+        ));
+    }
+    let problem = Problem {
+        rgb: &data.rgb,
+        target_lab: data
+            .xyz
+            .iter()
+            .map(|x| Lab::from_xyz(Xyz::from_array(*x), white))
+            .collect(),
+        white,
+    };
+    let p = levenberg_marquardt(&problem, &para);
+    let mut m = para.matrix(&p);
+    if preserve_white {
+        // The search directions are orthogonal to the white only up to rounding;
+        // project each row back onto its constraint so the white is exact.
+        let w = data.white_rgb;
+        let w2 = w[0] * w[0] + w[1] * w[1] + w[2] * w[2];
+        for (row, target) in m.iter_mut().zip(data.white_xyz) {
+            let excess = (row[0] * w[0] + row[1] * w[1] + row[2] * w[2] - target) / w2;
+            for (v, wk) in row.iter_mut().zip(w) {
+                *v -= excess * wk;
+            }
+        }
+    }
     if m.iter().flatten().any(|v| !v.is_finite()) {
         return Err(CameraError::Numerical(
             "CIEDE2000 fit produced non-finite values".into(),

@@ -9,7 +9,10 @@
 //!    card or an automatic estimate;
 //! 4. [`correction`]: the colour-correction matrix (camera RGB → XYZ, D65 white),
 //!    fitted by [`fit_linear`], [`fit_de2000`] or [`root_poly`] on a [`training`] set;
-//! 5. [`quality`]: Luther residual and Vora–Trussell µ-factor.
+//! 5. [`calibration`]: training data under a light (CAT16 targets), factory,
+//!    dual-illuminant and scene-profile corrections;
+//! 6. [`pipeline`]: eye versus camera per subject ([`CameraPipeline`]), camera metamers;
+//! 7. [`quality`]: Luther residual, Vora–Trussell µ-factor, ΔE00 over the training set.
 //!
 //! No user interface lives here; the crate depends on `lampwright-color` only.
 
@@ -17,9 +20,11 @@ mod error;
 
 pub mod calibration;
 pub mod correction;
+pub mod display;
 pub mod fit_de2000;
 pub mod fit_linear;
 pub mod locus;
+pub mod pipeline;
 pub mod quality;
 pub mod raw;
 pub mod root_poly;
@@ -29,7 +34,11 @@ pub mod white_balance;
 
 pub use calibration::MatrixMode;
 pub use correction::{ColorCorrection, DeltaEStats, FitData, FitMethod, fit_color_correction};
+pub use display::{DisplayColor, DisplaySpace};
 pub use error::{CameraError, Result};
+pub use pipeline::{
+    CameraPipeline, CameraSettings, Comparison, SubjectComparison, camera_metamers,
+};
 pub use raw::{SceneResponse, SubjectSignal, raw_signal};
 pub use sensitivities::CameraSensitivities;
 pub use training::TrainingSet;

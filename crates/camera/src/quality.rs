@@ -11,16 +11,27 @@
 //!   otherwise. Computed here without illuminant weighting (the "ν" of
 //!   Vora & Trussell for an equal-energy spectrum).
 //!
+//! - **ΔE00 over the training set under a light** ([`training_delta_e_under_light`]):
+//!   the camera white-balanced on the perfect white (an ideal grey card) and
+//!   corrected per its matrix mode, against the eye adapted with CAT16; mean,
+//!   90th percentile and maximum CIEDE2000.
+//!
 //! # References
 //! - Luther, R. (1927), Z. techn. Phys. 8, 540–558.
 //! - Vora, P. L. & Trussell, H. J. (1993), *Measure of goodness of a set of
 //!   color-scanning filters*, J. Opt. Soc. Am. A 10(7), 1499–1508,
 //!   doi:10.1364/JOSAA.10.001499.
 
+use crate::calibration::MatrixMode;
+use crate::correction::{DeltaEStats, FitMethod};
 use crate::error::{CameraError, Result};
 use crate::fit_linear::is_positive;
+use crate::pipeline::{CameraPipeline, CameraSettings};
 use crate::sensitivities::CameraSensitivities;
+use crate::training::TrainingSet;
+use crate::white_balance::WhiteBalance;
 use lampwright_color::GRID_LEN;
+use lampwright_color::RelativeSpd;
 use lampwright_color::observer::Observer;
 use nalgebra::DMatrix;
 
@@ -70,6 +81,28 @@ pub fn vora_trussell_mu(camera: &CameraSensitivities) -> Result<f64> {
     Ok(cross.norm_squared() / 3.0)
 }
 
+/// CIEDE2000 statistics of `camera` over `training` under `light`, white
+/// balance from an ideal grey card, correction per `matrix_mode` and `fit_method`.
+pub fn training_delta_e_under_light(
+    camera: &CameraSensitivities,
+    matrix_mode: MatrixMode,
+    fit_method: FitMethod,
+    light: &RelativeSpd,
+    training: &TrainingSet,
+) -> Result<DeltaEStats> {
+    let settings = CameraSettings {
+        white_balance: WhiteBalance::GreyCard { subject: None },
+        matrix_mode,
+        fit_method,
+        ..CameraSettings::default()
+    };
+    let comparison = CameraPipeline::new(camera, &settings, light, training)?
+        .compare(training.reflectances())?;
+    comparison
+        .delta_e_stats
+        .ok_or_else(|| CameraError::InvalidInput("the training set is empty".into()))
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -91,6 +124,33 @@ mod tests {
             assert!(mu < 0.99 && mu > 0.8, "{}: µ = {mu}", c.name);
             assert!(res > 0.05 && res < 0.6, "{}: residual = {res}", c.name);
         }
+    }
+
+    #[test]
+    fn training_delta_e_grows_away_from_the_calibration_light() {
+        use lampwright_color::illuminant::StandardIlluminant;
+        let t = TrainingSet::standard().unwrap();
+        let cam = &CameraSensitivities::demo_cameras().unwrap()[0];
+        let stats = |ill: StandardIlluminant, mode| {
+            training_delta_e_under_light(
+                cam,
+                mode,
+                FitMethod::WhitePreserving,
+                &ill.spd().unwrap(),
+                t,
+            )
+            .unwrap()
+        };
+        let d65 = stats(StandardIlluminant::D65, MatrixMode::Factory);
+        let f11_factory = stats(StandardIlluminant::F(11), MatrixMode::Factory);
+        let f11_profile = stats(StandardIlluminant::F(11), MatrixMode::SceneProfile);
+        assert!(d65.mean > 0.2 && d65.mean < 3.0, "{d65:?}");
+        assert!(d65.mean <= d65.p90 && d65.p90 <= d65.max);
+        // A profile fitted under the light itself does at least as well on its own training set.
+        assert!(
+            f11_profile.mean < f11_factory.mean,
+            "{f11_profile:?} vs {f11_factory:?}"
+        );
     }
 
     #[test]

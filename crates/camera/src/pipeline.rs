@@ -1,0 +1,436 @@
+//! Eye versus camera, per subject, under one light.
+//!
+//! For each subject (a reflectance) under the scene light:
+//! - **eye, as lit**: XYZ with the perfect white at Y = 1, no adaptation — the
+//!   colour cast a viewer adapted to D65 would see;
+//! - **eye**: that XYZ adapted to D65 with CAT16 from the scene white
+//!   (complete adaptation, D = 1) — what the subject looks like to someone in
+//!   the scene;
+//! - **camera**: raw signal → white-balance gains → colour correction → XYZ
+//!   with the D65 white at Y = 1;
+//! - CIELAB of each against the D65 white, display RGB (sRGB or Display P3)
+//!   with a gamut flag, and CIEDE2000 between eye and camera.
+//!
+//! [`CameraPipeline::new`] does everything that does not depend on the
+//! subjects once (light × curves, adaptation matrix, cached or fitted
+//! corrections, fixed white-balance gains); [`CameraPipeline::compare`] then
+//! costs one pass over the grid per subject plus a few hundred flops.
+//!
+//! # References
+//! - CIE 15:2018 §7.1 and §8.2.1 (XYZ, CIELAB); CIE 142-2001 (CIEDE2000).
+//! - Li, C. et al. (2017), doi:10.1002/col.22131 (CAT16).
+//! - See [`crate::calibration`], [`crate::white_balance`] for the camera steps.
+
+use crate::calibration::{
+    CalibrationLight, MatrixMode, calibrated_correction, cat16_to_d65, d65_white,
+    dual_illuminant_weight, fit_under_light,
+};
+use crate::correction::{ColorCorrection, DeltaEStats, FitMethod};
+use crate::display::{DisplayColor, DisplaySpace, DisplayTransform};
+use crate::error::Result;
+use crate::locus::CameraLocus;
+use crate::raw::{SceneResponse, SubjectSignal};
+use crate::sensitivities::CameraSensitivities;
+use crate::training::TrainingSet;
+use crate::white_balance::{ResolvedWhiteBalance, WhiteBalance, resolve_white_balance};
+use lampwright_color::adaptation::apply_matrix;
+use lampwright_color::delta_e::delta_e_ciede2000;
+use lampwright_color::observer::Observer;
+use lampwright_color::spaces::Lab;
+use lampwright_color::{Reflectance, RelativeSpd, Xyz};
+use nalgebra::Matrix3;
+use std::sync::Arc;
+
+/// Two subjects match to the eye (or to the camera) below this CIEDE2000.
+pub const METAMER_MATCH_DE: f64 = 1.0;
+/// ... and differ to the other above this CIEDE2000.
+pub const METAMER_DIFFER_DE: f64 = 3.0;
+
+/// How the simulated camera is set up.
+#[derive(Debug, Clone, Copy, PartialEq, Default, serde::Serialize, serde::Deserialize)]
+#[serde(default)]
+pub struct CameraSettings {
+    /// White balance.
+    pub white_balance: WhiteBalance,
+    /// Which colour correction is used.
+    pub matrix_mode: MatrixMode,
+    /// How corrections are fitted.
+    pub fit_method: FitMethod,
+    /// Display for the swatches.
+    pub display: DisplaySpace,
+}
+
+/// One subject seen by the eye and by the camera.
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
+pub struct SubjectComparison {
+    /// Camera raw `[R, G, B]`, perfect white at G = 1.
+    pub raw_rgb: [f64; 3],
+    /// After white-balance gains.
+    pub balanced_rgb: [f64; 3],
+    /// Eye: XYZ as lit, perfect white at Y = 1, no adaptation.
+    pub eye_xyz_as_lit: Xyz,
+    /// Eye: XYZ adapted to D65 (CAT16 from the scene white).
+    pub eye_xyz: Xyz,
+    /// Camera: XYZ after white balance and colour correction (D65 white, Y = 1).
+    pub camera_xyz: Xyz,
+    /// CIELAB of `eye_xyz_as_lit` against D65.
+    pub eye_lab_as_lit: Lab,
+    /// CIELAB of `eye_xyz` against D65.
+    pub eye_lab: Lab,
+    /// CIELAB of `camera_xyz` against D65.
+    pub camera_lab: Lab,
+    /// Display colour of the eye's adapted colour.
+    pub eye_display: DisplayColor,
+    /// Display colour of the eye's as-lit colour.
+    pub eye_display_as_lit: DisplayColor,
+    /// Display colour of the camera's rendering.
+    pub camera_display: DisplayColor,
+    /// CIEDE2000 between `eye_lab` and `camera_lab`.
+    pub delta_e_ciede2000: f64,
+}
+
+/// The result of comparing a set of subjects.
+#[derive(Debug, Clone, PartialEq, serde::Serialize, serde::Deserialize)]
+pub struct Comparison {
+    /// Per subject, in input order.
+    pub subjects: Vec<SubjectComparison>,
+    /// The white balance used.
+    pub white_balance: ResolvedWhiteBalance,
+    /// The CCT the camera infers from its white balance (its own white locus), K.
+    pub estimated_cct_k: Option<f64>,
+    /// The colour correction used.
+    pub correction: ColorCorrection,
+    /// Mean / 90th percentile / max of the subjects' CIEDE2000 (`None` without subjects).
+    pub delta_e_stats: Option<DeltaEStats>,
+}
+
+#[derive(Debug, Clone)]
+enum Corrections {
+    Single(Arc<ColorCorrection>),
+    Dual {
+        a: Arc<ColorCorrection>,
+        d65: Arc<ColorCorrection>,
+    },
+}
+
+/// A camera set up under one scene light, ready to compare subjects.
+#[derive(Debug, Clone)]
+pub struct CameraPipeline {
+    camera: CameraSensitivities,
+    settings: CameraSettings,
+    scene: SceneResponse,
+    locus: Arc<CameraLocus>,
+    fixed_white_balance: Option<ResolvedWhiteBalance>,
+    corrections: Corrections,
+    eye_to_d65: Matrix3<f64>,
+    white: Xyz,
+    display: DisplayTransform,
+}
+
+impl CameraPipeline {
+    /// Set up `camera` with `settings` under `scene_light` (the relative SPD
+    /// reaching the subjects, lamps mixed and gels applied). Corrections are
+    /// fitted on `training`; factory and dual-illuminant ones are cached for
+    /// the run, a scene profile is fitted here.
+    pub fn new(
+        camera: &CameraSensitivities,
+        settings: &CameraSettings,
+        scene_light: &RelativeSpd,
+        training: &TrainingSet,
+    ) -> Result<CameraPipeline> {
+        let scene = SceneResponse::new(camera, scene_light, Observer::cie1931_2deg())?;
+        let locus = CameraLocus::for_camera(camera)?;
+        let fixed_white_balance = if settings.white_balance.depends_on_subjects() {
+            None
+        } else {
+            Some(resolve_white_balance(
+                &settings.white_balance,
+                camera,
+                scene.white().raw_rgb,
+                &[],
+            )?)
+        };
+        let method = settings.fit_method;
+        let corrections = match settings.matrix_mode {
+            MatrixMode::Factory => Corrections::Single(calibrated_correction(
+                camera,
+                CalibrationLight::D65,
+                method,
+                training,
+            )?),
+            MatrixMode::DualIlluminant => Corrections::Dual {
+                a: calibrated_correction(camera, CalibrationLight::A, method, training)?,
+                d65: calibrated_correction(camera, CalibrationLight::D65, method, training)?,
+            },
+            MatrixMode::SceneProfile => Corrections::Single(Arc::new(fit_under_light(
+                camera,
+                scene_light,
+                method,
+                training,
+            )?)),
+        };
+        Ok(CameraPipeline {
+            camera: camera.clone(),
+            settings: *settings,
+            eye_to_d65: cat16_to_d65(scene.white().xyz)?,
+            scene,
+            locus,
+            fixed_white_balance,
+            corrections,
+            white: d65_white()?,
+            display: DisplayTransform::new(settings.display)?,
+        })
+    }
+
+    /// The settings this pipeline was built with.
+    #[must_use]
+    pub fn settings(&self) -> &CameraSettings {
+        &self.settings
+    }
+
+    /// The scene response (raw and XYZ integration) this pipeline uses.
+    #[must_use]
+    pub fn scene(&self) -> &SceneResponse {
+        &self.scene
+    }
+
+    /// Compare subjects given as reflectances.
+    pub fn compare(&self, reflectances: &[Reflectance]) -> Result<Comparison> {
+        self.compare_signals(&self.scene.subjects(reflectances))
+    }
+
+    /// Compare subjects whose signals were already integrated with [`CameraPipeline::scene`].
+    pub fn compare_signals(&self, signals: &[SubjectSignal]) -> Result<Comparison> {
+        let white_balance = match self.fixed_white_balance {
+            Some(wb) => wb,
+            None => resolve_white_balance(
+                &self.settings.white_balance,
+                &self.camera,
+                self.scene.white().raw_rgb,
+                signals,
+            )?,
+        };
+        let estimated_cct_k = self
+            .locus
+            .nearest(white_balance.gains.neutral_raw())
+            .map(|m| m.cct_k);
+        let correction = match &self.corrections {
+            Corrections::Single(c) => **c,
+            Corrections::Dual { a, d65 } => {
+                ColorCorrection::blend(a, d65, estimated_cct_k.map_or(1.0, dual_illuminant_weight))?
+            }
+        };
+        let subjects: Vec<SubjectComparison> = signals
+            .iter()
+            .map(|s| {
+                let balanced_rgb = white_balance.gains.apply(s.raw_rgb);
+                let camera_xyz = Xyz::from_array(correction.apply(balanced_rgb));
+                let eye_xyz = apply_matrix(&self.eye_to_d65, s.xyz);
+                let eye_lab = Lab::from_xyz(eye_xyz, self.white);
+                let camera_lab = Lab::from_xyz(camera_xyz, self.white);
+                SubjectComparison {
+                    raw_rgb: s.raw_rgb,
+                    balanced_rgb,
+                    eye_xyz_as_lit: s.xyz,
+                    eye_xyz,
+                    camera_xyz,
+                    eye_lab_as_lit: Lab::from_xyz(s.xyz, self.white),
+                    eye_lab,
+                    camera_lab,
+                    eye_display: self.display.color(eye_xyz),
+                    eye_display_as_lit: self.display.color(s.xyz),
+                    camera_display: self.display.color(camera_xyz),
+                    delta_e_ciede2000: delta_e_ciede2000(eye_lab, camera_lab),
+                }
+            })
+            .collect();
+        let des: Vec<f64> = subjects.iter().map(|s| s.delta_e_ciede2000).collect();
+        Ok(Comparison {
+            subjects,
+            white_balance,
+            estimated_cct_k,
+            correction,
+            delta_e_stats: DeltaEStats::of(&des),
+        })
+    }
+}
+
+/// A pair of subjects that one viewer sees as matching and the other does not.
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
+pub struct MetamerPair {
+    /// Index of the first subject.
+    pub first: usize,
+    /// Index of the second subject (greater than `first`).
+    pub second: usize,
+    /// CIEDE2000 between them for the eye (adapted).
+    pub delta_e_eye: f64,
+    /// CIEDE2000 between them for the camera.
+    pub delta_e_camera: f64,
+}
+
+/// Camera metamers of a comparison.
+#[derive(Debug, Clone, PartialEq, Default, serde::Serialize, serde::Deserialize)]
+pub struct CameraMetamers {
+    /// Match to the eye (ΔE00 < 1) but differ to the camera (ΔE00 > 3).
+    pub eye_matches_camera_splits: Vec<MetamerPair>,
+    /// Match to the camera (ΔE00 < 1) but differ to the eye (ΔE00 > 3).
+    pub camera_matches_eye_splits: Vec<MetamerPair>,
+}
+
+/// Find camera metamers among the compared subjects (all pairs; thresholds
+/// [`METAMER_MATCH_DE`] and [`METAMER_DIFFER_DE`]).
+#[must_use]
+pub fn camera_metamers(subjects: &[SubjectComparison]) -> CameraMetamers {
+    let mut out = CameraMetamers::default();
+    for (i, a) in subjects.iter().enumerate() {
+        for (j, b) in subjects.iter().enumerate().skip(i + 1) {
+            let pair = MetamerPair {
+                first: i,
+                second: j,
+                delta_e_eye: delta_e_ciede2000(a.eye_lab, b.eye_lab),
+                delta_e_camera: delta_e_ciede2000(a.camera_lab, b.camera_lab),
+            };
+            if pair.delta_e_eye < METAMER_MATCH_DE && pair.delta_e_camera > METAMER_DIFFER_DE {
+                out.eye_matches_camera_splits.push(pair);
+            } else if pair.delta_e_camera < METAMER_MATCH_DE && pair.delta_e_eye > METAMER_DIFFER_DE
+            {
+                out.camera_matches_eye_splits.push(pair);
+            }
+        }
+    }
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::white_balance::WbPreset;
+    use lampwright_color::illuminant::StandardIlluminant;
+
+    fn demo(i: usize) -> CameraSensitivities {
+        CameraSensitivities::demo_cameras().unwrap()[i].clone()
+    }
+
+    #[test]
+    fn perfect_white_renders_white_for_both() {
+        let t = TrainingSet::standard().unwrap();
+        for mode in [
+            MatrixMode::Factory,
+            MatrixMode::DualIlluminant,
+            MatrixMode::SceneProfile,
+        ] {
+            let settings = CameraSettings {
+                matrix_mode: mode,
+                ..CameraSettings::default()
+            };
+            let p = CameraPipeline::new(
+                &demo(0),
+                &settings,
+                &StandardIlluminant::F(11).spd().unwrap(),
+                t,
+            )
+            .unwrap();
+            let c = p.compare(&[Reflectance::perfect_white()]).unwrap();
+            let s = &c.subjects[0];
+            assert!(
+                (s.eye_lab.l - 100.0).abs() < 1e-9
+                    && s.eye_lab.a.abs() < 1e-9
+                    && s.eye_lab.b.abs() < 1e-9
+            );
+            assert!(
+                s.delta_e_ciede2000 < 1e-6,
+                "{mode:?}: {}",
+                s.delta_e_ciede2000
+            );
+            // As lit under F11 (about 4000 K), the white is yellowish against D65.
+            assert!(s.eye_lab_as_lit.b > 5.0);
+        }
+    }
+
+    #[test]
+    fn wrong_preset_gives_a_cast_and_dual_follows_estimate() {
+        let t = TrainingSet::standard().unwrap();
+        let a = StandardIlluminant::A.spd().unwrap();
+        let settings = CameraSettings {
+            white_balance: WhiteBalance::Preset {
+                preset: WbPreset::Daylight,
+            },
+            matrix_mode: MatrixMode::DualIlluminant,
+            ..CameraSettings::default()
+        };
+        let p = CameraPipeline::new(&demo(1), &settings, &a, t).unwrap();
+        let c = p.compare(&[Reflectance::from_fn(|_| 0.5)]).unwrap();
+        // Daylight balance under tungsten: warm (b* > 0, clearly visible).
+        assert!(c.subjects[0].camera_lab.b > 20.0 && c.subjects[0].delta_e_ciede2000 > 10.0);
+        // The camera believes the light is D55: its estimate is near 5500 K.
+        let cct = c.estimated_cct_k.unwrap();
+        assert!((cct - 5503.0).abs() < 150.0, "{cct}");
+    }
+
+    #[test]
+    fn subject_dependent_white_balance_is_resolved_per_call() {
+        let t = TrainingSet::standard().unwrap();
+        let settings = CameraSettings {
+            white_balance: WhiteBalance::GreyCard { subject: Some(1) },
+            ..CameraSettings::default()
+        };
+        let p = CameraPipeline::new(
+            &demo(2),
+            &settings,
+            &StandardIlluminant::D50.spd().unwrap(),
+            t,
+        )
+        .unwrap();
+        assert!(p.compare(&[Reflectance::perfect_white()]).is_err());
+        let c = p
+            .compare(&[Reflectance::perfect_white(), Reflectance::from_fn(|_| 0.18)])
+            .unwrap();
+        assert_eq!(c.white_balance.reference_subject, Some(1));
+        assert!(c.delta_e_stats.is_some());
+    }
+
+    #[test]
+    fn metamers_are_found_both_ways() {
+        let mk = |eye: Lab, cam: Lab| {
+            let dc = DisplayTransform::new(DisplaySpace::Srgb)
+                .unwrap()
+                .color(Xyz::default());
+            SubjectComparison {
+                raw_rgb: [0.0; 3],
+                balanced_rgb: [0.0; 3],
+                eye_xyz_as_lit: Xyz::default(),
+                eye_xyz: Xyz::default(),
+                camera_xyz: Xyz::default(),
+                eye_lab_as_lit: eye,
+                eye_lab: eye,
+                camera_lab: cam,
+                eye_display: dc,
+                eye_display_as_lit: dc,
+                camera_display: dc,
+                delta_e_ciede2000: 0.0,
+            }
+        };
+        let s = [
+            mk(Lab::new(50.0, 10.0, 10.0), Lab::new(50.0, 10.0, 10.0)),
+            mk(Lab::new(50.2, 10.0, 10.0), Lab::new(50.0, 20.0, 10.0)), // eye match, camera split
+            mk(Lab::new(70.0, -20.0, 0.0), Lab::new(50.1, 10.0, 10.0)), // camera matches 0, eye splits
+        ];
+        let m = camera_metamers(&s);
+        assert_eq!(m.eye_matches_camera_splits.len(), 1);
+        assert_eq!(
+            (
+                m.eye_matches_camera_splits[0].first,
+                m.eye_matches_camera_splits[0].second
+            ),
+            (0, 1)
+        );
+        assert_eq!(m.camera_matches_eye_splits.len(), 1);
+        assert_eq!(
+            (
+                m.camera_matches_eye_splits[0].first,
+                m.camera_matches_eye_splits[0].second
+            ),
+            (0, 2)
+        );
+    }
+}
