@@ -3,6 +3,7 @@
 //! Each subcommand lives in its own module with a clap `Args` struct and a
 //! `run(args) -> anyhow::Result<ExitCode>` function.
 
+pub mod delta_e;
 pub mod lamp;
 
 use clap::{Parser, Subcommand};
@@ -21,6 +22,8 @@ pub struct Cli {
 pub enum Command {
     /// Lamp figures of measured spectra: chromaticity, CCT, Duv, CRI, TM-30, SSI.
     Lamp(lamp::LampArgs),
+    /// Colour differences ΔE76, ΔE94 and ΔE2000 of CIELAB pairs in a CSV file.
+    DeltaE(delta_e::DeltaEArgs),
 }
 
 /// Run the parsed command line.
@@ -30,5 +33,6 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             anyhow::bail!("the window is not built yet; see `lampwright --help` for the subcommands")
         }
         Some(Command::Lamp(args)) => lamp::run(&args),
+        Some(Command::DeltaE(args)) => delta_e::run(&args),
     }
 }
