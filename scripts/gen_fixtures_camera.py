@@ -68,6 +68,37 @@ def to_grid(wavelengths, values):
     return np.interp(GRID, inside.wavelengths, inside.values)
 
 
+def fit_case(light, sens, refl, cmf):
+    """Raw RGB, XYZ and the fits for one camera under one light (see the module docs)."""
+    k_y = np.sum(light * cmf[:, 1])
+    xyz = (refl.T * light) @ cmf / k_y
+    white_xyz = light @ cmf / k_y
+    k_g = np.sum(light * sens[:, 1])
+    rgb = (refl.T * light) @ sens / k_g
+    white_rgb = light @ sens / k_g
+    x_ls, *_ = np.linalg.lstsq(rgb, xyz, rcond=None)
+    m_ls = x_ls.T
+    g_inv_w = np.linalg.solve(rgb.T @ rgb, white_rgb)
+    m_wp = m_ls + np.outer(white_xyz - m_ls @ white_rgb, g_inv_w) / (white_rgb @ g_inv_w)
+    terms = np.stack([rgb[:, 0], rgb[:, 1], rgb[:, 2], np.sqrt(rgb[:, 0] * rgb[:, 1]),
+                      np.sqrt(rgb[:, 1] * rgb[:, 2]), np.sqrt(rgb[:, 0] * rgb[:, 2])], axis=1)
+    x_rp, *_ = np.linalg.lstsq(terms, xyz, rcond=None)
+    xy_w = colour.XYZ_to_xy(white_xyz)
+    lab_ref = colour.XYZ_to_Lab(xyz, xy_w)
+    lab_fit = colour.XYZ_to_Lab(rgb @ m_ls.T, xy_w)
+    de = colour.delta_E(lab_ref, lab_fit, method="CIE 2000")
+    return {
+        "white_rgb": white_rgb.tolist(),
+        "white_xyz": white_xyz.tolist(),
+        "first_sample_rgb": rgb[0].tolist(),
+        "first_sample_xyz": xyz[0].tolist(),
+        "linear_matrix": m_ls.tolist(),
+        "white_preserving_matrix": m_wp.tolist(),
+        "root_poly_matrix": x_rp.T.tolist(),
+        "linear_de2000": de.tolist(),
+    }
+
+
 def main():
     _, wl, cmf_raw = read_table("assets/standard/cie1931_2deg_cmfs.csv")
     cmf = np.stack([to_grid(wl, cmf_raw[:, k]) for k in range(3)], axis=1)
@@ -92,36 +123,14 @@ def main():
 
     cases = []
     for light_name, light in lights.items():
-        k_y = np.sum(light * cmf[:, 1])
-        xyz = (refl.T * light) @ cmf / k_y  # 113 x 3
-        white_xyz = light @ cmf / k_y
         for cam_name, sens in cameras:
-            k_g = np.sum(light * sens[:, 1])
-            rgb = (refl.T * light) @ sens / k_g
-            white_rgb = light @ sens / k_g
-            x_ls, *_ = np.linalg.lstsq(rgb, xyz, rcond=None)
-            m_ls = x_ls.T
-            g_inv_w = np.linalg.solve(rgb.T @ rgb, white_rgb)
-            m_wp = m_ls + np.outer(white_xyz - m_ls @ white_rgb, g_inv_w) / (white_rgb @ g_inv_w)
-            terms = np.stack([rgb[:, 0], rgb[:, 1], rgb[:, 2], np.sqrt(rgb[:, 0] * rgb[:, 1]),
-                              np.sqrt(rgb[:, 1] * rgb[:, 2]), np.sqrt(rgb[:, 0] * rgb[:, 2])], axis=1)
-            x_rp, *_ = np.linalg.lstsq(terms, xyz, rcond=None)
-            xy_w = colour.XYZ_to_xy(white_xyz)
-            lab_ref = colour.XYZ_to_Lab(xyz, xy_w)
-            lab_fit = colour.XYZ_to_Lab(rgb @ m_ls.T, xy_w)
-            de = colour.delta_E(lab_ref, lab_fit, method="CIE 2000")
-            cases.append({
-                "camera": cam_name,
-                "light": light_name,
-                "white_rgb": white_rgb.tolist(),
-                "white_xyz": white_xyz.tolist(),
-                "first_sample_rgb": rgb[0].tolist(),
-                "first_sample_xyz": xyz[0].tolist(),
-                "linear_matrix": m_ls.tolist(),
-                "white_preserving_matrix": m_wp.tolist(),
-                "root_poly_matrix": x_rp.T.tolist(),
-                "linear_de2000": de.tolist(),
-            })
+            case = fit_case(light, sens, refl, cmf)
+            cases.append({"camera": cam_name, "light": light_name, **case})
+
+    # The case the command-line test runs: demo camera A, illuminant A, TCS01-TCS14 only.
+    tcs = [i for i, n in enumerate(samples) if n.startswith("TCS")]
+    cli_case = {"camera": cameras[0][0], "light": "A", "samples": [samples[i] for i in tcs],
+                **fit_case(lights["A"], cameras[0][1], refl[:, tcs], cmf)}
 
     doc = {
         "generator": "scripts/gen_fixtures_camera.py",
@@ -131,6 +140,7 @@ def main():
                   "grid 360-830 nm at 1 nm, Sprague for 5 nm data, ends repeated",
         "samples": samples,
         "cases": cases,
+        "cli_case": cli_case,
     }
     with open(OUT, "w", encoding="utf-8", newline="\n") as f:
         json.dump(doc, f, indent=1)

@@ -4,6 +4,7 @@
 //! `run(args) -> anyhow::Result<ExitCode>` function.
 
 pub mod delta_e;
+pub mod camera_fit;
 pub mod lamp;
 
 use clap::{Parser, Subcommand};
@@ -22,6 +23,8 @@ pub struct Cli {
 pub enum Command {
     /// Lamp figures of measured spectra: chromaticity, CCT, Duv, CRI, TM-30, SSI.
     Lamp(lamp::LampArgs),
+    /// Fit a camera colour-correction matrix under a light and report each sample's ΔE2000.
+    CameraFit(camera_fit::CameraFitArgs),
     /// Colour differences ΔE76, ΔE94 and ΔE2000 of CIELAB pairs in a CSV file.
     DeltaE(delta_e::DeltaEArgs),
 }
@@ -33,6 +36,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             anyhow::bail!("the window is not built yet; see `lampwright --help` for the subcommands")
         }
         Some(Command::Lamp(args)) => lamp::run(&args),
+        Some(Command::CameraFit(args)) => camera_fit::run(&args),
         Some(Command::DeltaE(args)) => delta_e::run(&args),
     }
 }
