@@ -30,10 +30,9 @@ use crate::error::{ColorError, Result};
 use crate::illuminant::{daylight, planckian};
 use crate::observer::Observer;
 use crate::spaces::Uv1960;
-use crate::spectral_weights::WeightRows;
+use crate::spectral_weights::SampleSet;
 use crate::spectrum::{GRID_LEN, Reflectance, RelativeSpd};
 use crate::table::AssetTable;
-use crate::tristimulus::Xyz;
 use std::sync::LazyLock;
 
 /// CIE 13.3-1995 §5.3: largest chromaticity difference DC between test lamp
@@ -101,14 +100,9 @@ static TCS: LazyLock<Result<Vec<Reflectance>>> = LazyLock::new(|| {
         .collect()
 });
 
-static TCS_WEIGHTS: LazyLock<Result<WeightRows>> = LazyLock::new(|| {
+static TCS_SET: LazyLock<Result<SampleSet>> = LazyLock::new(|| {
     let tcs = TCS.as_ref().map_err(Clone::clone)?;
-    Ok(WeightRows::for_samples(
-        tcs,
-        Observer::cie1931_2deg(),
-        0,
-        GRID_LEN,
-    ))
+    Ok(SampleSet::new(tcs, Observer::cie1931_2deg(), 0, GRID_LEN))
 });
 
 /// The 14 CIE 13.3 test colour samples on the grid (Sprague-interpolated from 5 nm).
@@ -166,14 +160,9 @@ pub fn cri_cie133_with_reference(
     kind: ReferenceKind,
 ) -> Result<Cri> {
     reference.check_colorimetric("CRI reference")?;
-    let weights = TCS_WEIGHTS.as_ref().map_err(Clone::clone)?;
-    let n = weights.sample_count();
-    let mut xt = Vec::with_capacity(3 * (n + 1));
-    let mut xr = Vec::with_capacity(3 * (n + 1));
-    weights.apply(test.values(), &mut xt);
-    weights.apply(reference.values(), &mut xr);
-    let white = |v: &[f64]| Xyz::new(v[3 * n], v[3 * n + 1], v[3 * n + 2]);
-    let (wt, wr) = (white(&xt), white(&xr));
+    let set = TCS_SET.as_ref().map_err(Clone::clone)?;
+    let (xt, xr) = set.xyz_pair(test.values(), reference.values());
+    let (wt, wr) = (xt.white, xr.white);
     if !(wt.y > 0.0 && wr.y > 0.0) {
         return Err(ColorError::NotColorimetric {
             what: "light".into(),
@@ -186,10 +175,9 @@ pub fn cri_cie133_with_reference(
     let (ct, dt) = c_d(uv_t);
     let (cr, dr) = c_d(uv_r);
     let mut r = [0.0; 14];
-    for (i, ri) in r.iter_mut().enumerate().take(n.min(14)) {
-        let sample = |v: &[f64], k: f64| Xyz::new(v[3 * i] * k, v[3 * i + 1] * k, v[3 * i + 2] * k);
-        let st = sample(&xt, 100.0 / wt.y);
-        let sr = sample(&xr, 100.0 / wr.y);
+    for ((ri, st), sr) in r.iter_mut().zip(&xt.samples).zip(&xr.samples) {
+        let st = st.scaled(100.0 / wt.y);
+        let sr = sr.scaled(100.0 / wr.y);
         let uv_ti = Uv1960::from_xyz(st);
         let uv_ri = Uv1960::from_xyz(sr);
         // Von Kries in (u, v), CIE 13.3 eq. 7: test colours adapted to the reference.

@@ -1,73 +1,136 @@
-//! Precomputed spectral weight rows for the light-source quality metrics.
+//! Tristimulus values of many reflecting samples under two lights at once, for
+//! the light-source quality metrics (CRI: 14 samples, TM-30: 99 samples).
 //!
-//! CRI and TM-30 evaluate many samples under one light. Instead of forming the
-//! stimulus `S(λ)·R(λ)` and then summing with each colour-matching function,
-//! the products `R(λ)·x̄(λ)` etc. are computed once, so the tristimulus values
-//! of every sample under a light are one matrix–vector product:
-//! `XYZ_i = Σ_λ S(λ) · W_i(λ)`. The sums are identical to the direct ones up
-//! to floating-point rounding.
+//! `XYZ_i = Σ_λ R_i(λ) · [S(λ)·x̄(λ)]` etc.: the three light-weighted
+//! colour-matching functions of each light are formed once per call (they are
+//! small and stay in the fastest cache), then every sample's reflectance is read
+//! once and dotted with the six vectors of both lights. Reading the 99 × 401
+//! reflectances once is cheaper than streaming a precomputed 99 × 3 × 401
+//! matrix of reflectance × CMF products, which does not fit in cache. The sums
+//! equal the direct ones up to floating-point rounding.
 
 use crate::observer::Observer;
 use crate::spectrum::{GRID_LEN, Reflectance};
+use crate::tristimulus::Xyz;
 
-/// Rows of weights over a window of the grid.
-pub(crate) struct WeightRows {
+/// Reflectances of a sample set over a window of the grid, with an observer.
+pub(crate) struct SampleSet {
     /// First grid index of the window.
     start: usize,
     /// Window length (number of 1 nm samples).
     len: usize,
-    /// Row-major weights, `rows × len`.
-    weights: Vec<f64>,
+    /// Row-major reflectances, `samples × len`.
+    reflectance: Vec<f64>,
+    /// x̄, ȳ, z̄ over the window.
+    cmf: [Vec<f64>; 3],
 }
 
-impl WeightRows {
-    /// For each sample, three rows `R·x̄`, `R·ȳ`, `R·z̄` (in that order), and at
-    /// the end three rows `x̄`, `ȳ`, `z̄` (the light itself, perfect white),
-    /// over the grid indices `start..start + len`.
-    pub(crate) fn for_samples(
+/// Unnormalised tristimulus sums of every sample and of the light itself.
+pub(crate) struct SampleXyz {
+    /// One entry per sample.
+    pub(crate) samples: Vec<Xyz>,
+    /// The light (perfect white).
+    pub(crate) white: Xyz,
+}
+
+impl SampleSet {
+    /// The samples over grid indices `start..start + len` with `observer`.
+    pub(crate) fn new(
         samples: &[Reflectance],
         observer: &Observer,
         start: usize,
         len: usize,
-    ) -> WeightRows {
+    ) -> SampleSet {
         let len = len.min(GRID_LEN.saturating_sub(start));
-        let mut weights = Vec::with_capacity((samples.len() + 1) * 3 * len);
-        let cmfs = [&observer.x_bar, &observer.y_bar, &observer.z_bar];
-        for s in samples {
-            for cmf in cmfs {
-                weights.extend((start..start + len).map(|i| s.values()[i] * cmf[i]));
-            }
-        }
-        for cmf in cmfs {
-            weights.extend((start..start + len).map(|i| cmf[i]));
-        }
-        WeightRows {
+        let w = start..start + len;
+        let reflectance = samples
+            .iter()
+            .flat_map(|s| s.values()[w.clone()].iter().copied())
+            .collect();
+        let cmf =
+            [&observer.x_bar, &observer.y_bar, &observer.z_bar].map(|c| c[w.clone()].to_vec());
+        SampleSet {
             start,
             len,
-            weights,
+            reflectance,
+            cmf,
         }
     }
 
-    /// Number of samples (not counting the white rows).
+    /// Number of samples.
     pub(crate) fn sample_count(&self) -> usize {
-        (self.weights.len() / (3 * self.len.max(1))).saturating_sub(1)
+        self.reflectance.len() / self.len.max(1)
     }
 
-    /// Tristimulus sums of every sample and, last, of the light itself.
-    /// `out` gets `3 × (sample_count + 1)` values: X, Y, Z per sample.
-    pub(crate) fn apply(&self, spd: &[f64; GRID_LEN], out: &mut Vec<f64>) {
-        out.clear();
-        let window = &spd[self.start..self.start + self.len];
-        out.extend(
-            self.weights
-                .chunks_exact(self.len)
-                .map(|row| dot(row, window)),
-        );
+    /// Per wavelength, the six products of light `a` and light `b` with x̄, ȳ, z̄.
+    fn weighted_pair(&self, a: &[f64; GRID_LEN], b: &[f64; GRID_LEN]) -> Vec<[f64; 6]> {
+        let w = self.start..self.start + self.len;
+        a[w.clone()]
+            .iter()
+            .zip(&b[w])
+            .zip(self.cmf[0].iter().zip(&self.cmf[1]).zip(&self.cmf[2]))
+            .map(|((sa, sb), ((x, y), z))| [sa * x, sa * y, sa * z, sb * x, sb * y, sb * z])
+            .collect()
+    }
+
+    /// Tristimulus sums of every sample under light `a` and under light `b`.
+    pub(crate) fn xyz_pair(
+        &self,
+        a: &[f64; GRID_LEN],
+        b: &[f64; GRID_LEN],
+    ) -> (SampleXyz, SampleXyz) {
+        let w = self.weighted_pair(a, b);
+        let mut white = [0.0; 6];
+        for row in &w {
+            for k in 0..6 {
+                white[k] += row[k];
+            }
+        }
+        let count = self.sample_count();
+        let mut out_a = SampleXyz {
+            samples: Vec::with_capacity(count),
+            white: Xyz::new(white[0], white[1], white[2]),
+        };
+        let mut out_b = SampleXyz {
+            samples: Vec::with_capacity(count),
+            white: Xyz::new(white[3], white[4], white[5]),
+        };
+        let mut push = |d: [f64; 6]| {
+            out_a.samples.push(Xyz::new(d[0], d[1], d[2]));
+            out_b.samples.push(Xyz::new(d[3], d[4], d[5]));
+        };
+        // Two samples per pass: twelve independent sums hide the adder latency.
+        let mut rows = self.reflectance.chunks_exact(2 * self.len);
+        for pair in &mut rows {
+            let (r0, r1) = pair.split_at(self.len);
+            let (d0, d1) = dot6_two(r0, r1, &w);
+            push(d0);
+            push(d1);
+        }
+        let rest = rows.remainder();
+        if !rest.is_empty() {
+            push(dot6_two(rest, rest, &w).0);
+        }
+        (out_a, out_b)
     }
 }
 
-/// Dot product with four independent accumulators, so the compiler can keep
-/// them in one SIMD register (a strict left-to-right sum cannot be vectorised).
+/// `Σ_λ r0(λ)·w(λ)[k]` and the same for `r1`, for the six columns `k` of `w`.
+/// Fixed-size rows let the compiler keep the sums in SIMD registers without
+/// bounds checks.
+fn dot6_two(r0: &[f64], r1: &[f64], w: &[[f64; 6]]) -> ([f64; 6], [f64; 6]) {
+    let mut a0 = [0.0f64; 6];
+    let mut a1 = [0.0f64; 6];
+    for ((x0, x1), wk) in r0.iter().zip(r1).zip(w) {
+        for k in 0..6 {
+            a0[k] += x0 * wk[k];
+            a1[k] += x1 * wk[k];
+        }
+    }
+    (a0, a1)
+}
+
+/// Dot product with four independent accumulators (vectorisable).
 pub(crate) fn dot(a: &[f64], b: &[f64]) -> f64 {
     let n = a.len().min(b.len());
     let (a, b) = (&a[..n], &b[..n]);
@@ -96,25 +159,31 @@ mod tests {
     use crate::tristimulus::xyz_sums;
 
     #[test]
-    fn rows_match_direct_sums() {
+    fn pair_matches_direct_sums() {
         let obs = Observer::cie1931_2deg();
-        let r = Reflectance::from_fn(|wl| 0.2 + 0.6 * ((wl - 360.0) / 470.0));
-        let spd = RelativeSpd::from_fn(|wl| 1.0 + (wl / 100.0).sin());
-        let w = WeightRows::for_samples(std::slice::from_ref(&r), obs, 0, GRID_LEN);
-        assert_eq!(w.sample_count(), 1);
-        let mut out = Vec::new();
-        w.apply(spd.values(), &mut out);
-        let direct = xyz_sums((&spd * &r).values(), obs);
-        let white = xyz_sums(spd.values(), obs);
-        for (got, want) in out
-            .iter()
-            .zip([direct.x, direct.y, direct.z, white.x, white.y, white.z])
-        {
-            assert!(
-                (got - want).abs() < 1e-9 * want.abs().max(1.0),
-                "{got} {want}"
-            );
+        // Three samples: one pair and one left over.
+        let r = [
+            Reflectance::from_fn(|wl| 0.2 + 0.6 * ((wl - 360.0) / 470.0)),
+            Reflectance::from_fn(|wl| 0.5 + 0.4 * (wl / 50.0).cos()),
+            Reflectance::from_fn(|wl| 0.1 + 0.8 * (-((wl - 600.0) / 30.0).powi(2)).exp()),
+        ];
+        let a = RelativeSpd::from_fn(|wl| 1.0 + (wl / 100.0).sin());
+        let b = RelativeSpd::from_fn(|wl| wl / 500.0);
+        let set = SampleSet::new(&r, obs, 0, GRID_LEN);
+        assert_eq!(set.sample_count(), 3);
+        let (xa, xb) = set.xyz_pair(a.values(), b.values());
+        for (light, got) in [(&a, &xa), (&b, &xb)] {
+            for (refl, g) in r.iter().zip(&got.samples) {
+                let want = xyz_sums((light * refl).values(), obs);
+                for (u, w) in [(g.x, want.x), (g.y, want.y), (g.z, want.z)] {
+                    assert!((u - w).abs() < 1e-9 * w.abs().max(1.0), "{u} {w}");
+                }
+            }
+            let w = xyz_sums(light.values(), obs);
+            assert!((got.white.y - w.y).abs() < 1e-9 * w.y);
         }
         assert!((dot(&[1.0, 2.0, 3.0, 4.0, 5.0], &[1.0; 5]) - 15.0).abs() < 1e-12);
+        let (d0, d1) = dot6_two(&[1.0, 2.0, 3.0], &[0.0, 1.0, 0.0], &[[1.0; 6]; 3]);
+        assert!((d0[5] - 6.0).abs() < 1e-12 && (d1[0] - 1.0).abs() < 1e-12);
     }
 }

@@ -19,9 +19,10 @@
 //!    areas of the two 16-gons; Rcs,hj and Rhs,hj are the components of the bin
 //!    shift along and across the bin's centre hue, over the reference chroma.
 //!
-//! Speed: the products CESᵢ(λ)·x̄₁₀(λ) etc. are precomputed once, so the
-//! colorimetry of all 99 samples under a light is one 300 × 401 matrix–vector
-//! product.
+//! Speed: the 99 reflectances are kept on the 380–780 nm window; per call the
+//! light-weighted colour-matching functions S(λ)·x̄₁₀(λ) etc. of test and
+//! reference are formed once and each sample is read once for both lights (see
+//! `spectral_weights.rs` for why this beats a precomputed CES × CMF matrix).
 //!
 //! The lamp CCT used to pick the reference sums 360–830 nm; colour-science 0.4.7
 //! (`colour_fidelity_index_ANSIIESTM3018`) trims the test light to 380–780 nm
@@ -40,10 +41,9 @@ use crate::cri::ReferenceKind;
 use crate::error::{ColorError, Result};
 use crate::illuminant::{daylight, planckian};
 use crate::observer::Observer;
-use crate::spectral_weights::{WeightRows, dot};
+use crate::spectral_weights::{SampleSet, SampleXyz, dot};
 use crate::spectrum::{GRID_START_NM, Reflectance, RelativeSpd};
 use crate::table::AssetTable;
-use crate::tristimulus::Xyz;
 use std::sync::LazyLock;
 
 /// Below the first bound the reference is Planckian, above the second CIE daylight, K.
@@ -91,7 +91,7 @@ pub struct Tm30 {
     pub daylight_fraction: f64,
 }
 
-static CES_WEIGHTS: LazyLock<Result<WeightRows>> = LazyLock::new(|| {
+static CES_SET: LazyLock<Result<SampleSet>> = LazyLock::new(|| {
     let t = AssetTable::parse(
         "cie224_ces99.csv",
         include_str!("../../../assets/standard/cie224_ces99.csv"),
@@ -107,7 +107,7 @@ static CES_WEIGHTS: LazyLock<Result<WeightRows>> = LazyLock::new(|| {
         .iter()
         .map(|c| Reflectance::from_samples(&t.wavelengths_nm, c))
         .collect::<Result<Vec<_>>>()?;
-    Ok(WeightRows::for_samples(
+    Ok(SampleSet::new(
         &samples,
         Observer::cie1964_10deg(),
         WINDOW_START,
@@ -160,10 +160,8 @@ pub fn rf_from_delta_e(delta_e: f64) -> f64 {
 }
 
 /// CAM02-UCS J′a′b′ of the 99 samples under a light.
-fn ces_jab(weights: &WeightRows, spd: &RelativeSpd, sums: &mut Vec<f64>) -> Result<Vec<[f64; 3]>> {
-    weights.apply(spd.values(), sums);
-    let n = weights.sample_count();
-    let white = Xyz::new(sums[3 * n], sums[3 * n + 1], sums[3 * n + 2]);
+fn ces_jab(sums: &SampleXyz) -> Result<Vec<[f64; 3]>> {
+    let white = sums.white;
     if !(white.y > 0.0 && white.is_finite()) {
         return Err(ColorError::NotColorimetric {
             what: "light".into(),
@@ -172,15 +170,7 @@ fn ces_jab(weights: &WeightRows, spd: &RelativeSpd, sums: &mut Vec<f64>) -> Resu
     }
     let k = 100.0 / white.y;
     let ucs = Cam02Ucs::tm30(white.scaled(k))?;
-    Ok((0..n)
-        .map(|i| {
-            ucs.jab(Xyz::new(
-                sums[3 * i] * k,
-                sums[3 * i + 1] * k,
-                sums[3 * i + 2] * k,
-            ))
-        })
-        .collect())
+    Ok(sums.samples.iter().map(|x| ucs.jab(x.scaled(k))).collect())
 }
 
 /// Twice the signed area of the polygon through `pts` in order (shoelace).
@@ -215,11 +205,11 @@ pub fn tm30_with_references(
     day: Option<&RelativeSpd>,
 ) -> Result<Tm30> {
     test.check_colorimetric("light")?;
-    let weights = CES_WEIGHTS.as_ref().map_err(Clone::clone)?;
+    let set = CES_SET.as_ref().map_err(Clone::clone)?;
     let (reference, kind, daylight_fraction) = tm30_reference(cct.cct_k, planck, day)?;
-    let mut sums = Vec::with_capacity(3 * (TM30_CES_COUNT + 1));
-    let jab_t = ces_jab(weights, test, &mut sums)?;
-    let jab_r = ces_jab(weights, &reference, &mut sums)?;
+    let (sums_t, sums_r) = set.xyz_pair(test.values(), reference.values());
+    let jab_t = ces_jab(&sums_t)?;
+    let jab_r = ces_jab(&sums_r)?;
 
     let de: Vec<f64> = jab_t
         .iter()

@@ -5,6 +5,7 @@
 //!   distribution temperature. *JOSA* 58(11), 1528–1535. doi:10.1364/JOSA.58.001528
 
 use super::locus::{locus_normal, planckian_uv_from_mired};
+use super::ohno2014::planckian_uv_tabulated;
 use super::{CctDuv, check_result, check_uv, kelvin_from_mired};
 use crate::error::{ColorError, Result};
 use crate::spaces::Uv1960;
@@ -85,8 +86,20 @@ pub fn cct_robertson1968(uv: Uv1960) -> Result<CctDuv> {
             };
             let m = a.mired + (b.mired - a.mired) * frac;
             let cct_k = kelvin_from_mired(m)?;
-            let (pu, pv) = planckian_uv_from_mired(m);
-            let (nu, nv) = locus_normal(cct_k)?;
+            // The locus point from the 0.1 % table, the normal from the two
+            // isotherms' directions: no spectral sums in the hot path.
+            let (pu, pv) =
+                planckian_uv_tabulated(cct_k).unwrap_or_else(|| planckian_uv_from_mired(m));
+            let (du, dv) = (
+                a.dir.0 + (b.dir.0 - a.dir.0) * frac,
+                a.dir.1 + (b.dir.1 - a.dir.1) * frac,
+            );
+            let len = du.hypot(dv);
+            let (nu, nv) = if len > 0.0 {
+                (du / len, dv / len)
+            } else {
+                locus_normal(cct_k)?
+            };
             let duv = (u - pu) * nu + (v - pv) * nv;
             return check_result(CctDuv { cct_k, duv });
         }
