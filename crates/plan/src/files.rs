@@ -56,11 +56,35 @@ fn line_of_offset(bytes: &[u8], offset: usize) -> usize {
 }
 
 fn parse_error(path: &Path, e: &ron::error::SpannedError) -> PlanError {
+    let message = match &e.code {
+        ron::Error::ExceededRecursionLimit => format!(
+            "brackets nest more than {MAX_NESTING} deep (a plan nests about 8 deep); the file is damaged"
+        ),
+        other => one_line(&other.to_string()),
+    };
     PlanError::Parse {
         path: path.to_path_buf(),
         line: e.span.start.line,
         column: e.span.start.col,
-        message: one_line(&e.code.to_string()),
+        message,
+    }
+}
+
+/// A limit broken by a file's content names the file too.
+fn in_file(path: &Path, e: PlanError) -> PlanError {
+    match e {
+        PlanError::Limit {
+            field,
+            what,
+            found,
+            limit,
+        } => PlanError::Limit {
+            field: format!("{}: {field}", path.display()),
+            what,
+            found,
+            limit,
+        },
+        other => other,
     }
 }
 
@@ -103,6 +127,14 @@ pub fn plan_from_bytes(path: &Path, bytes: &[u8]) -> Result<Plan> {
             path: path.to_path_buf(),
             size_bytes: bytes.len() as u64,
             limit_bytes: MAX_FILE_BYTES,
+        });
+    }
+    if bytes.starts_with(b"\xFF\xFE") || bytes.starts_with(b"\xFE\xFF") {
+        return Err(PlanError::Parse {
+            path: path.to_path_buf(),
+            line: 1,
+            column: 1,
+            message: "the file is UTF-16 text; plan files are UTF-8 RON (save it as UTF-8)".into(),
         });
     }
     let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
@@ -155,7 +187,7 @@ pub fn plan_from_bytes(path: &Path, bytes: &[u8]) -> Result<Plan> {
             });
         }
     };
-    check_limits(&plan)?;
+    check_limits(&plan).map_err(|e| in_file(path, e))?;
     Ok(plan)
 }
 

@@ -5,6 +5,7 @@
 //! from it; the command line does the same.
 
 pub mod advisor;
+pub mod custom;
 pub mod demo;
 pub mod engine;
 mod error;
