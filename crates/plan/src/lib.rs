@@ -16,6 +16,7 @@ pub mod limits;
 pub mod migrate;
 pub mod model;
 mod render;
+pub mod report;
 pub mod resolve;
 pub mod validate;
 
