@@ -223,5 +223,26 @@ mod tests {
         assert!((r.cct_k - 6504.0).abs() < 3.0, "{r:?}");
         assert!((r.duv - 0.0032).abs() < 3e-4, "{r:?}");
         assert!(cct_duv_of_spd(&RelativeSpd::from_fn(|_| 0.0), CctMethod::Ohno2014).is_err());
+        // CIE daylight along its locus (CIE 15:2018 eqs. 4.7–4.9): CCT within 0.05 % of the
+        // nominal T, always above the Planckian locus (Duv ≈ +0.003, the trade's "daylight
+        // is slightly green of tungsten").
+        for t in [4000.0, 5000.0, 5500.0, 7500.0, 10_000.0, 15_000.0, 20_000.0] {
+            let r = cct_duv_of_spd(&daylight(t).unwrap(), CctMethod::Ohno2014).unwrap();
+            assert!((r.cct_k - t).abs() < 5e-4 * t, "{t}: {r:?}");
+            assert!((0.0025..0.0035).contains(&r.duv), "{t}: {r:?}");
+        }
+    }
+
+    proptest::proptest! {
+        #[test]
+        fn any_uv_gives_a_finite_result_or_an_error(u in -1.0f64..2.0, v in -1.0f64..2.0) {
+            for method in [CctMethod::Ohno2014, CctMethod::Robertson1968] {
+                if let Ok(r) = cct_duv(Uv1960 { u, v }, method) {
+                    proptest::prop_assert!(r.cct_k.is_finite() && r.duv.is_finite());
+                    proptest::prop_assert!(r.duv.abs() <= DUV_LIMIT);
+                    proptest::prop_assert!((999.5..=20_000.5).contains(&r.cct_k));
+                }
+            }
+        }
     }
 }
