@@ -99,7 +99,7 @@ impl CameraLocus {
     #[must_use]
     pub fn nearest(&self, neutral_raw: [f64; 3]) -> Option<LocusMatch> {
         let q = log_chromaticity(neutral_raw)?;
-        let mut best: Option<LocusMatch> = None;
+        let mut best: Option<(f64, f64)> = None;
         for (seg, m) in self.points.windows(2).zip(self.mired.windows(2)) {
             let (a, b) = (seg[0], seg[1]);
             let d = [b[0] - a[0], b[1] - a[1]];
@@ -110,15 +110,16 @@ impl CameraLocus {
                 0.0
             };
             let p = [a[0] + t * d[0], a[1] + t * d[1]];
-            let distance = (q[0] - p[0]).hypot(q[1] - p[1]);
-            if best.is_none_or(|b| distance < b.distance) {
-                best = Some(LocusMatch {
-                    cct_k: 1e6 / (m[0] + t * (m[1] - m[0])),
-                    distance,
-                });
+            // Squared distances while searching; one square root at the end.
+            let distance2 = (q[0] - p[0]).powi(2) + (q[1] - p[1]).powi(2);
+            if best.is_none_or(|(_, b2)| distance2 < b2) {
+                best = Some((m[0] + t * (m[1] - m[0]), distance2));
             }
         }
-        best
+        best.map(|(mired, distance2)| LocusMatch {
+            cct_k: 1e6 / mired,
+            distance: distance2.sqrt(),
+        })
     }
 }
 
