@@ -8,7 +8,7 @@
 //! - Planck's law with c2 = 1.4388 × 10⁻² m·K (ITS-90 value, CIE 15:2018 §3.1).
 
 use crate::error::{ColorError, Result};
-use crate::spectrum::{Coverage, GRID_LEN, RelativeSpd, grid_wavelength_nm};
+use crate::spectrum::{Coverage, GRID_LEN, RelativeSpd, grid_wavelength_nm, grid_wavelengths_nm};
 use crate::table::AssetTable;
 use std::collections::HashMap;
 use std::sync::LazyLock;
@@ -73,9 +73,10 @@ pub fn daylight_xy(t_kelvin: f64) -> Result<(f64, f64)> {
     Ok((x, y))
 }
 
+/// The daylight basis S0, S1, S2 interpolated linearly onto the grid once
+/// (CIE 15 recommends linear interpolation for the D series).
 struct DaylightBasis {
-    wavelengths_nm: Vec<f64>,
-    s: [Vec<f64>; 3],
+    s: [[f64; GRID_LEN]; 3],
 }
 
 static DAYLIGHT_BASIS: LazyLock<Option<DaylightBasis>> = LazyLock::new(|| {
@@ -84,14 +85,19 @@ static DAYLIGHT_BASIS: LazyLock<Option<DaylightBasis>> = LazyLock::new(|| {
         include_str!("../../../assets/standard/cie_daylight_basis.csv"),
     )
     .ok()?;
-    Some(DaylightBasis {
-        wavelengths_nm: t.wavelengths_nm.clone(),
-        s: [
-            t.columns.first()?.clone(),
-            t.columns.get(1)?.clone(),
-            t.columns.get(2)?.clone(),
-        ],
-    })
+    let w = &t.wavelengths_nm;
+    if w.len() < 2 || t.columns.len() < 3 {
+        return None;
+    }
+    let mut s = [[0.0; GRID_LEN]; 3];
+    for (i, wl) in grid_wavelengths_nm().enumerate() {
+        let k = w.partition_point(|v| *v <= wl).clamp(1, w.len() - 1) - 1;
+        let f = ((wl - w[k]) / (w[k + 1] - w[k])).clamp(0.0, 1.0);
+        for (basis, column) in s.iter_mut().zip(&t.columns) {
+            basis[i] = column[k] * (1.0 - f) + column[k + 1] * f;
+        }
+    }
+    Some(DaylightBasis { s })
 });
 
 /// CIE daylight at correlated colour temperature `t_kelvin` (4000–25 000 K),
@@ -108,16 +114,9 @@ pub fn daylight(t_kelvin: f64) -> Result<RelativeSpd> {
     let basis = DAYLIGHT_BASIS
         .as_ref()
         .ok_or_else(|| ColorError::Numerical("daylight basis table failed to load".into()))?;
-    let values: Vec<f64> = (0..basis.wavelengths_nm.len())
-        .map(|i| basis.s[0][i] + m1 * basis.s[1][i] + m2 * basis.s[2][i])
-        .collect();
     let mut grid = [0.0; GRID_LEN];
-    let w = &basis.wavelengths_nm;
     for (i, g) in grid.iter_mut().enumerate() {
-        let wl = grid_wavelength_nm(i);
-        let k = w.partition_point(|v| *v <= wl).clamp(1, w.len() - 1) - 1;
-        let t = ((wl - w[k]) / (w[k + 1] - w[k])).clamp(0.0, 1.0);
-        *g = values[k] * (1.0 - t) + values[k + 1] * t;
+        *g = basis.s[0][i] + m1 * basis.s[1][i] + m2 * basis.s[2][i];
     }
     RelativeSpd::from_grid(grid, Coverage::FULL)
 }
