@@ -16,6 +16,8 @@
 //!
 //! No user interface lives here; the crate depends on `lampwright-color` only.
 
+#![warn(missing_docs)]
+
 mod error;
 
 pub mod calibration;
