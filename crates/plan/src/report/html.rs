@@ -82,11 +82,11 @@ fn sources_section(out: &mut String, eval: &Evaluation) {
     for s in &eval.sources {
         let _ = write!(
             out,
-            r#"<tr><td>{}</td><td class="num">{}</td><td class="num">{}</td><td class="num">{:.1} stops</td><td class="num">{}</td><td class="num">{}</td><td>{}</td></tr>"#,
+            r#"<tr><td>{}</td><td class="num">{}</td><td class="num">{}</td><td class="num">{} stops</td><td class="num">{}</td><td class="num">{}</td><td>{}</td></tr>"#,
             esc(&s.name),
             lux(s.illuminance_lux),
             stops(s.stops_from_key),
-            s.gel_loss_stops,
+            one(Some(s.gel_loss_stops)),
             cct(s.cct_k),
             duv(s.duv),
             if s.lit { "on" } else { "off" }

@@ -118,9 +118,12 @@ pub(crate) mod fmt_num {
         v.map_or_else(dash, |x| format!("{x:.0}"))
     }
 
-    /// One decimal: ΔE, stops, EV.
+    /// One decimal: ΔE, stops, EV (never "-0.0").
     pub fn one(v: Option<f64>) -> String {
-        v.map_or_else(dash, |x| format!("{x:.1}"))
+        v.map_or_else(dash, |x| {
+            let x = if x.abs() < 0.05 { 0.0 } else { x };
+            format!("{x:.1}")
+        })
     }
 
     /// Stops with sign: "−1.3 stops" (typographic minus).
@@ -291,6 +294,7 @@ mod tests {
         assert_eq!(fmt_num::duv(Some(0.0002)), "+0.000");
         assert_eq!(fmt_num::index(Some(82.6)), "83");
         assert_eq!(fmt_num::one(Some(2.345)), "2.3");
+        assert_eq!(fmt_num::one(Some(-0.00001)), "0.0");
         assert_eq!(fmt_num::stops(Some(-1.26)), "−1.3 stops");
         assert_eq!(fmt_num::cct(None), "—");
         assert_eq!(fmt_num::lux(812.4), "812 lux");

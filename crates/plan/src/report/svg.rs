@@ -31,6 +31,9 @@ const PALETTE: [&str; 8] = [
     "#1f5fa8", "#c2571a", "#2e8b57", "#8a3ea8", "#b8860b", "#c0306a", "#4a7f8c", "#6b6b6b",
 ];
 
+/// Marker colour of the mix in the chromaticity figure.
+const MIX_COLOUR: &str = "#ffffff";
+
 const PLOT_START_NM: f64 = 380.0;
 const PLOT_END_NM: f64 = 780.0;
 
@@ -117,9 +120,9 @@ pub fn spectrum_svg(eval: &Evaluation) -> String {
             let colour = PALETTE[k % PALETTE.len()];
             let _ = write!(
                 s,
-                r#"<path d="{}" fill="none" stroke="{colour}" stroke-width="1.2"><title>{}</title></path>"#,
-                path(&src.spectrum),
-                esc(&src.name)
+                r#"<g><title>{}</title><path d="{}" fill="none" stroke="{colour}" stroke-width="1.2"/></g>"#,
+                esc(&src.name),
+                path(&src.spectrum)
             );
         }
     } else {
@@ -217,21 +220,20 @@ pub fn chromaticity_svg(eval: &Evaluation) -> String {
         }
         t *= 1.02;
     }
-    let mut points: Vec<(String, f64, f64)> = Vec::new();
+    // The mix (the main zone) and every other zone, each with its marker colour.
+    let mut points: Vec<(String, &str, f64, f64)> = Vec::new();
     if let Some([u, v]) = eval.light.uv {
-        points.push(("Mix".into(), u, v));
+        points.push(("Mix at the subject".into(), MIX_COLOUR, u, v));
     }
-    if eval.zones.len() > 1 {
-        for z in &eval.zones {
-            if let Some([u, v]) = z.light.uv {
-                points.push((z.name.clone(), u, v));
-            }
+    for (k, z) in eval.zones.iter().enumerate().skip(1) {
+        if let Some([u, v]) = z.light.uv {
+            points.push((z.name.clone(), PALETTE[(k - 1) % PALETTE.len()], u, v));
         }
     }
     let all = locus
         .iter()
         .copied()
-        .chain(points.iter().map(|p| (p.1, p.2)));
+        .chain(points.iter().map(|p| (p.2, p.3)));
     let (mut u0, mut u1, mut v0, mut v1) = (f64::MAX, f64::MIN, f64::MAX, f64::MIN);
     for (u, v) in all.filter(|(u, v)| u.is_finite() && v.is_finite()) {
         u0 = u0.min(u);
@@ -276,21 +278,25 @@ pub fn chromaticity_svg(eval: &Evaluation) -> String {
             );
         }
     }
-    for (k, (name, u, v)) in points.iter().enumerate() {
-        let colour = if k == 0 {
-            "#c2571a"
-        } else {
-            PALETTE[(k - 1) % PALETTE.len()]
-        };
+    // Markers, then a legend in the top-left corner (labels beside the
+    // markers would collide when zones have similar whites).
+    for (name, colour, u, v) in &points {
         let _ = write!(
             s,
-            r##"<circle cx="{:.1}" cy="{:.1}" r="5" fill="{colour}" stroke="#222"><title>{}: u {u:.4}, v {v:.4}</title></circle><text x="{:.1}" y="{:.1}" class="name">{}</text>"##,
-            px(*u),
-            py(*v),
+            r##"<g><title>{}: u {u:.4}, v {v:.4}</title><circle cx="{:.1}" cy="{:.1}" r="5" fill="{colour}" stroke="#222"/></g>"##,
             esc(name),
-            px(*u) + 7.0,
-            py(*v) - 6.0,
-            esc(name)
+            px(*u),
+            py(*v)
+        );
+    }
+    for (k, (name, colour, _, _)) in points.iter().enumerate() {
+        let y = 34.0 + 15.0 * k as f64;
+        let label: String = name.chars().take(32).collect();
+        let _ = write!(
+            s,
+            r##"<circle cx="30" cy="{:.1}" r="4" fill="{colour}" stroke="#222"/><text x="40" y="{y:.1}" class="name">{}</text>"##,
+            y - 4.0,
+            esc(&label)
         );
     }
     let _ = write!(
@@ -347,11 +353,9 @@ mod tests {
             .find(|c| c.contains("4000 K"))
             .unwrap()
             .to_string();
-        let mix = svg
-            .split("<circle")
-            .find(|c| c.contains("Mix:"))
-            .unwrap()
-            .to_string();
+        // The marker follows its title.
+        let after_title = &svg[svg.find("<title>Mix at the subject: u").unwrap()..];
+        let mix = after_title.split("<circle").nth(1).unwrap().to_string();
         let centre = |c: &str| {
             let cx: f64 = c
                 .split("cx=\"")

@@ -96,11 +96,11 @@ pub fn report_text(plan: &Plan, eval: &Evaluation) -> String {
         let state = if s.lit { "" } else { "  (off)" };
         let _ = writeln!(
             out,
-            "  {}: {}, {} from key, gels cost {:.1} stops, CCT {}, Duv {}{state}",
+            "  {}: {}, {} from key, gels cost {} stops, CCT {}, Duv {}{state}",
             clean(&s.name),
             lux(s.illuminance_lux),
             stops(s.stops_from_key),
-            s.gel_loss_stops,
+            one(Some(s.gel_loss_stops)),
             cct(s.cct_k),
             duv(s.duv)
         );
