@@ -5,9 +5,7 @@
 
 pub mod delta_e;
 pub mod camera_fit;
-pub mod check;
 pub mod lamp;
-pub mod report;
 
 use clap::{Parser, Subcommand};
 use std::process::ExitCode;
@@ -23,28 +21,32 @@ pub struct Cli {
 /// The subcommands. With none, the window opens.
 #[derive(Debug, Subcommand)]
 pub enum Command {
+    /// Open a plan file in the window.
+    Open {
+        /// The plan file (.ron).
+        plan: std::path::PathBuf,
+    },
     /// Lamp figures of measured spectra: chromaticity, CCT, Duv, CRI, TM-30, SSI.
     Lamp(lamp::LampArgs),
     /// Fit a camera colour-correction matrix under a light and report each sample's ΔE2000.
     CameraFit(camera_fit::CameraFitArgs),
     /// Colour differences ΔE76, ΔE94 and ΔE2000 of CIELAB pairs in a CSV file.
     DeltaE(delta_e::DeltaEArgs),
-    /// Check a plan file and list every problem in it (exit status 1 on errors).
-    Check(check::CheckArgs),
-    /// Evaluate a plan and write its report as text, JSON, CSV or HTML.
-    Report(report::ReportArgs),
 }
 
 /// Run the parsed command line.
 pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
     match cli.command {
-        None => {
-            anyhow::bail!("the window is not built yet; see `lampwright --help` for the subcommands")
-        }
+        None => open_window(None),
+        Some(Command::Open { plan }) => open_window(Some(plan)),
         Some(Command::Lamp(args)) => lamp::run(&args),
         Some(Command::CameraFit(args)) => camera_fit::run(&args),
         Some(Command::DeltaE(args)) => delta_e::run(&args),
-        Some(Command::Check(args)) => check::run(&args),
-        Some(Command::Report(args)) => report::run(&args),
     }
+}
+
+/// Open the window, on a plan file or on the built-in demo plan.
+fn open_window(plan: Option<std::path::PathBuf>) -> anyhow::Result<ExitCode> {
+    lampwright::ui::run(lampwright::ui::StartOptions::from_env(plan))?;
+    Ok(ExitCode::SUCCESS)
 }

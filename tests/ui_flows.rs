@@ -1,0 +1,355 @@
+//! Headless tests of the real window (egui_kittest, no display, no GPU):
+//! they click through the flows a user follows and check the plan and the
+//! evaluation the window shows.
+
+use egui::accesskit::Role;
+use egui::{Key, Modifiers};
+use egui_kittest::Harness;
+use egui_kittest::kittest::Queryable;
+use lampwright::ui::{App, StartOptions, catalog, format};
+use std::path::{Path, PathBuf};
+use std::sync::Arc;
+use std::time::Instant;
+
+fn harness() -> Harness<'static, App> {
+    let mut harness = Harness::builder()
+        .with_size(egui::vec2(1440.0, 900.0))
+        .build_eframe(|cc| App::new(cc, StartOptions::headless(), Instant::now()));
+    harness.run();
+    harness
+}
+
+/// Replace the text of a text field found by its label.
+fn type_into(harness: &mut Harness<'static, App>, label: &str, text: &str) {
+    harness
+        .get_by_role_and_label(Role::TextInput, label)
+        .focus();
+    harness.run();
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::A);
+    harness.run();
+    harness
+        .get_by_role_and_label(Role::TextInput, label)
+        .type_text(text);
+    harness.run();
+}
+
+/// A file dropped on the window, as the windowing layer hands it over.
+#[derive(Debug)]
+struct Dropped(PathBuf);
+
+impl egui::DroppedFile for Dropped {
+    fn path(&self) -> &Path {
+        &self.0
+    }
+
+    fn bytes(&self) -> Result<Vec<u8>, String> {
+        std::fs::read(&self.0).map_err(|e| e.to_string())
+    }
+}
+
+fn drop_file(harness: &mut Harness<'static, App>, path: &Path) {
+    harness
+        .input_mut()
+        .dropped_files
+        .push(Arc::new(Dropped(path.to_path_buf())));
+    harness.run();
+}
+
+#[test]
+fn opens_on_the_demo_plan_with_figures() {
+    let harness = harness();
+    let app = harness.state();
+    assert!(!app.plan().sources.is_empty(), "the demo plan has lights");
+    assert!(
+        !app.plan().subjects.is_empty(),
+        "the demo plan has subjects"
+    );
+    assert!(
+        app.evaluation_error().is_none(),
+        "demo evaluates: {:?}",
+        app.evaluation_error()
+    );
+    let eval = app.evaluation().expect("evaluation on screen");
+    // The CCT readout shows the evaluation's figure, rounded to 10 K.
+    harness.get_by_label(&format::cct(eval.light.cct_k));
+    // Every subject has its swatch card with ΔE to 0.1.
+    for r in &eval.subjects {
+        assert!(
+            harness
+                .query_all_by_label_contains(&format!("ΔE00 {}", format::delta_e(r.de2000)))
+                .next()
+                .is_some(),
+            "ΔE label for {}",
+            r.name
+        );
+    }
+}
+
+#[test]
+fn add_a_source_then_a_gel_changes_readouts_and_delta_e() {
+    let mut harness = harness();
+    let before_sources = harness.state().plan().sources.len();
+    let before = harness.state().evaluation().expect("evaluation").clone();
+
+    harness.get_by_label("Add source").click();
+    harness.run();
+    assert_eq!(harness.state().plan().sources.len(), before_sources + 1);
+
+    // Put the first gel of the library on the new source (its card is the last).
+    let gel = catalog::builtin()
+        .gels
+        .first()
+        .expect("a built-in gel")
+        .clone();
+    harness
+        .get_all_by_label("Add gel…")
+        .last()
+        .expect("gel picker")
+        .scroll_to_me();
+    harness.run();
+    harness
+        .get_all_by_label("Add gel…")
+        .last()
+        .expect("gel picker")
+        .click();
+    harness.run();
+    harness
+        .get_by_role_and_label(Role::TextInput, "Search")
+        .type_text(&gel.name);
+    harness.run();
+    harness
+        .get_by_role_and_label(Role::Button, &gel.name)
+        .click();
+    harness.run();
+
+    let app = harness.state();
+    let new_source = app.plan().sources.last().expect("new source");
+    assert_eq!(new_source.gels.len(), 1, "the gel is on the new source");
+    let after = app.evaluation().expect("evaluation").clone();
+    assert!(
+        app.evaluation_error().is_none(),
+        "{:?}",
+        app.evaluation_error()
+    );
+    assert_ne!(after.light.cct_k, before.light.cct_k, "the mix CCT moves");
+    assert!(
+        after
+            .subjects
+            .iter()
+            .zip(&before.subjects)
+            .any(|(a, b)| (a.de2000 - b.de2000).abs() > 1e-6),
+        "some subject's ΔE changes"
+    );
+    // The readout strip shows the new figure.
+    harness.get_by_label(&format::cct(after.light.cct_k));
+}
+
+#[test]
+fn undo_returns_the_exact_earlier_plan_and_redo_reapplies() {
+    let mut harness = harness();
+    let original = harness.state().plan().clone();
+
+    harness.get_by_label("Add source").click();
+    harness.run();
+    harness
+        .get_all_by_label("On")
+        .next()
+        .expect("on/off")
+        .click();
+    harness.run();
+    let edited = harness.state().plan().clone();
+    assert_ne!(edited, original);
+    assert_eq!(harness.state().undo_len(), 2);
+
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    harness.run();
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    harness.run();
+    assert_eq!(
+        harness.state().plan(),
+        &original,
+        "two undos give back the opening plan"
+    );
+
+    harness.key_press_modifiers(Modifiers::COMMAND | Modifiers::SHIFT, Key::Z);
+    harness.run();
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::Y);
+    harness.run();
+    assert_eq!(harness.state().plan(), &edited, "redo reapplies both edits");
+}
+
+#[test]
+fn a_slider_drag_is_one_undo_step() {
+    let mut harness = harness();
+    let original = harness.state().plan().clone();
+    let slider = harness
+        .get_all_by_role(Role::Slider)
+        .next()
+        .expect("a level slider");
+    let rect = slider.rect();
+    let start = rect.left_center() + egui::vec2(8.0, 0.0);
+    harness.drag_at(start);
+    harness.run();
+    for step in 1..=6 {
+        harness.hover_at(start + egui::vec2(12.0 * step as f32, 0.0));
+        harness.run();
+    }
+    harness.drop_at(start + egui::vec2(72.0, 0.0));
+    harness.run();
+    assert_ne!(
+        harness.state().plan(),
+        &original,
+        "the drag changed a level"
+    );
+    assert_eq!(
+        harness.state().undo_len(),
+        1,
+        "the whole drag is one undo step"
+    );
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    harness.run();
+    assert_eq!(harness.state().plan(), &original);
+}
+
+#[test]
+fn save_then_open_gives_the_same_plan() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("shoot.ron");
+    let mut harness = harness();
+
+    harness.get_by_label("Add source").click();
+    harness.run();
+    let saved = harness.state().plan().clone();
+
+    harness.key_press_modifiers(Modifiers::COMMAND | Modifiers::SHIFT, Key::S);
+    harness.run();
+    type_into(&mut harness, "Path", &path.display().to_string());
+    harness.get_by_label("Save").click();
+    harness.run();
+    assert!(
+        path.exists(),
+        "plan file written; notices: {:?}",
+        harness.state().notices()
+    );
+    assert_eq!(harness.state().path(), Some(path.as_path()));
+    assert!(!harness.state().is_dirty());
+
+    // Change the plan, then open the file again: the prompt guards the change.
+    harness.get_by_label("Add source").click();
+    harness.run();
+    assert!(harness.state().is_dirty());
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::O);
+    harness.run();
+    harness.get_by_label("Discard changes").click();
+    harness.run();
+    type_into(&mut harness, "Path", &path.display().to_string());
+    harness.get_by_label("Open").click();
+    harness.run();
+
+    assert_eq!(
+        harness.state().plan(),
+        &saved,
+        "the plan read back equals the plan saved"
+    );
+    assert!(!harness.state().is_dirty());
+}
+
+#[test]
+fn new_plan_asks_before_discarding_changes() {
+    let mut harness = harness();
+    harness.get_by_label("Add source").click();
+    harness.run();
+    let edited = harness.state().plan().clone();
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::N);
+    harness.run();
+    harness.get_by_label("Unsaved changes");
+    harness.get_by_label("Cancel").click();
+    harness.run();
+    assert_eq!(harness.state().plan(), &edited, "cancel keeps the plan");
+}
+
+#[test]
+fn a_malformed_csv_shows_an_error_and_changes_nothing() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("broken.csv");
+    std::fs::write(&path, "wavelength,value\n400,0.5\n410,not-a-number\n420\n").expect("write");
+    let mut harness = harness();
+    let before = harness.state().plan().clone();
+
+    drop_file(&mut harness, &path);
+    harness.get_by_label("Import a spectral table");
+    harness.get_by_label("Add to plan").click();
+    harness.run();
+
+    assert_eq!(harness.state().plan(), &before, "nothing changed");
+    let notice = harness.state().notices().last().expect("a message");
+    assert!(notice.is_error, "shown as an error: {notice:?}");
+    assert!(
+        notice.text.contains("broken.csv"),
+        "names the file: {}",
+        notice.text
+    );
+    // The message is on screen (in the dialog and the status line).
+    assert!(
+        harness
+            .query_all_by_label_contains("Could not import")
+            .next()
+            .is_some()
+    );
+}
+
+#[test]
+fn a_plan_that_cannot_be_evaluated_shows_a_banner_and_keeps_the_last_figures() {
+    let mut harness = harness();
+    let good = harness.state().evaluation().expect("evaluation").clone();
+    let id = harness.state().plan().sources[0].id;
+    harness
+        .state_mut()
+        .push_command(lampwright::ui::command::Command::Source(
+            id,
+            lampwright::ui::command::SourceEdit::Lamp(lampwright_plan::LampRef::Library(
+                "no-such-lamp".into(),
+            )),
+        ));
+    harness.run();
+    let app = harness.state();
+    assert!(
+        app.evaluation_error()
+            .is_some_and(|e| e.contains("no-such-lamp")),
+        "{:?}",
+        app.evaluation_error()
+    );
+    assert_eq!(
+        app.evaluation(),
+        Some(&good),
+        "the last good evaluation stays"
+    );
+    harness.get_by_label("This plan cannot be evaluated");
+    // Undo clears the error.
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    harness.run();
+    assert!(harness.state().evaluation_error().is_none());
+}
+
+#[test]
+fn swatch_sheet_exports_as_png() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("sheet.png");
+    let mut harness = harness();
+    harness.get_by_label("File").click();
+    harness.run();
+    harness.get_by_label("Export").hover();
+    harness.run();
+    harness.get_by_label("Swatch sheet (PNG)…").click();
+    harness.run();
+    type_into(&mut harness, "Path", &path.display().to_string());
+    harness.get_by_label("Export").click();
+    harness.run();
+    let img = image::open(&path).expect("a PNG was written").to_rgb8();
+    let eval = harness.state().evaluation().expect("evaluation");
+    let first = eval.subjects[0].eye_rgb8;
+    assert!(
+        img.pixels().any(|p| p.0 == first),
+        "the first eye colour is on the sheet"
+    );
+}
