@@ -11,8 +11,9 @@
 //! - von Kries, J. (1902), "Chromatic adaptation", Festschrift der Albrecht-Ludwigs-Universität;
 //!   the diagonal-gain model.
 //! - Hunt–Pointer–Estévez cone fundamentals, normalised to D65 as tabulated by
-//!   Fairchild, M. D. (2013), *Color Appearance Models*, 3rd ed., Wiley, eq. 9.18,
-//!   DOI 10.1002/9781118653128 (the "von Kries" matrix used here).
+//!   CIE 109-1994 (*A method of predicting corresponding colours under different chromatic
+//!   and illuminance adaptations*) and Fairchild, M. D. (2013), *Color Appearance Models*,
+//!   3rd ed., Wiley, ch. 9 (the "von Kries" matrix used here).
 //! - Lam, K. M. (1985), *Metamerism and colour constancy*, doctoral thesis, University of
 //!   Bradford; the linearised Bradford matrix (Lindbloom, B., "Chromatic Adaptation",
 //!   brucelindbloom.com, lists it with adaptation matrices between standard whites).
@@ -61,7 +62,7 @@ impl Cat {
     #[must_use]
     pub fn matrix(self) -> Matrix3<f64> {
         match self {
-            // Fairchild (2013) eq. 9.18: Hunt–Pointer–Estévez normalised to D65.
+            // Hunt–Pointer–Estévez normalised to D65 (CIE 109-1994; Fairchild 2013 ch. 9).
             Cat::VonKries => Matrix3::new(
                 0.40024, 0.70760, -0.08081, //
                 -0.22630, 1.16532, 0.04570, //
@@ -206,7 +207,7 @@ pub fn adapt_xyz(cat: Cat, xyz: Xyz, src_white: Xyz, dst_white: Xyz) -> Result<X
 mod tests {
     use super::*;
 
-    // Lindbloom's whites (ASTM E308 tables, 2°): D65 and D50, Y = 1.
+    // The reference whites of Lindbloom's tables: D65 and D50, Y = 1.
     const D65: Xyz = Xyz::new(0.95047, 1.0, 1.08883);
     const D50: Xyz = Xyz::new(0.96422, 1.0, 0.82521);
 

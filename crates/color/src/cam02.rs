@@ -16,6 +16,9 @@
 //! - Moroney, N., Fairchild, M. D., Hunt, R. W. G., Li, C., Luo, M. R., Newman, T.
 //!   (2002), "The CIECAM02 color appearance model", *Proc. IS&T/SID 10th Color
 //!   Imaging Conference*, 23–27.
+//! - Luo, M. R., Li, C. (2013), "CIECAM02 and its recent developments", in
+//!   *Advanced Color Image Processing and Analysis*, Springer, 19–58,
+//!   DOI 10.1007/978-1-4419-6190-7 (odd extension of the compression to negative responses).
 //! - Luo, M. R., Cui, G., Li, C. (2006), "Uniform colour spaces based on CIECAM02
 //!   colour appearance model", *Color Res. Appl.* 31(4):320–330, DOI 10.1002/col.20227
 //!   (CAM02-UCS: KL = 1, c1 = 0.007, c2 = 0.0228).
