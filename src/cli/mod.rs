@@ -5,7 +5,9 @@
 
 pub mod delta_e;
 pub mod camera_fit;
+pub mod check;
 pub mod lamp;
+pub mod report;
 
 use clap::{Parser, Subcommand};
 use std::process::ExitCode;
@@ -32,6 +34,10 @@ pub enum Command {
     CameraFit(camera_fit::CameraFitArgs),
     /// Colour differences ΔE76, ΔE94 and ΔE2000 of CIELAB pairs in a CSV file.
     DeltaE(delta_e::DeltaEArgs),
+    /// Check a plan file and list every problem in it (exit status 1 on errors).
+    Check(check::CheckArgs),
+    /// Evaluate a plan and write its report as text, JSON, CSV or HTML.
+    Report(report::ReportArgs),
 }
 
 /// Run the parsed command line.
@@ -42,6 +48,8 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
         Some(Command::Lamp(args)) => lamp::run(&args),
         Some(Command::CameraFit(args)) => camera_fit::run(&args),
         Some(Command::DeltaE(args)) => delta_e::run(&args),
+        Some(Command::Check(args)) => check::run(&args),
+        Some(Command::Report(args)) => report::run(&args),
     }
 }
 
