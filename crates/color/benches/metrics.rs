@@ -67,7 +67,7 @@ fn bench_metrics(c: &mut Criterion) {
     let mut g = c.benchmark_group("cct_duv_of_spd");
     for (name, s) in &spectra {
         g.bench_function(name.as_str(), |b| {
-            b.iter(|| cct_duv_of_spd(black_box(s), CctMethod::Ohno2014))
+            b.iter(|| cct_duv_of_spd(black_box(s), CctMethod::Ohno2014));
         });
     }
     g.finish();
@@ -79,7 +79,7 @@ fn bench_metrics(c: &mut Criterion) {
         g.bench_function("tm30", |b| b.iter(|| tm30(black_box(f2))));
         g.bench_function("ssi_default", |b| b.iter(|| ssi_default(black_box(f2))));
         g.bench_function("planckian_4225k", |b| {
-            b.iter(|| planckian(black_box(4225.0)))
+            b.iter(|| planckian(black_box(4225.0)));
         });
         g.bench_function("daylight_4225k", |b| b.iter(|| daylight(black_box(4225.0))));
         g.finish();
@@ -93,10 +93,10 @@ fn bench_metrics(c: &mut Criterion) {
         let mut g = c.benchmark_group("cct_from_uv");
         g.bench_function("ohno2014", |b| b.iter(|| cct_ohno2014(black_box(uv))));
         g.bench_function("robertson1968", |b| {
-            b.iter(|| cct_robertson1968(black_box(uv)))
+            b.iter(|| cct_robertson1968(black_box(uv)));
         });
         g.bench_function("dispatch_ohno2014", |b| {
-            b.iter(|| cct_duv(black_box(uv), CctMethod::Ohno2014))
+            b.iter(|| cct_duv(black_box(uv), CctMethod::Ohno2014));
         });
         g.finish();
     }
