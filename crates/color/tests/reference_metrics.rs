@@ -5,6 +5,10 @@
 //!
 //! One tolerance per quantity, with the reason beside it.
 
+// Fixture-reading helpers sit outside #[test] functions; a missing or malformed
+// fixture should fail the test run loudly.
+#![allow(clippy::unwrap_used)]
+
 use lampwright_color::cct::{CctMethod, cct_duv, uv1960_of_spd};
 use lampwright_color::cri::cri_cie133;
 use lampwright_color::illuminant::StandardIlluminant;
