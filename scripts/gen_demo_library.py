@@ -164,7 +164,7 @@ def led_tube_cheap():
     pump = gauss(449.0, 9.0)
     yellow = agauss(565.0, 40.0, 58.0)
     spike = gauss(543.0, 5.0)
-    return mix_to_white([pump, yellow, spike], 5000.0, 0.012)
+    return mix_to_white([pump, yellow, spike], 5100.0, 0.012)
 
 
 def rgb_panel():
@@ -218,7 +218,7 @@ def lamps():
         ("led-3200-hifi", phosphor_led_high_fidelity(3200.0), "as led-2700-hifi, solved for 3200 K, Duv 0"),
         ("led-4000-hifi", phosphor_led_high_fidelity(4000.0), "as led-2700-hifi, solved for 4000 K, Duv 0"),
         ("led-5600-hifi", phosphor_led_high_fidelity(5600.0), "as led-2700-hifi, solved for 5600 K, Duv 0"),
-        ("led-tube-cheap", led_tube_cheap(), "blue pump 449 nm + yellow phosphor 565 nm + green spike 543 nm (sigma 5 nm), solved for 5000 K, Duv +0.012"),
+        ("led-tube-cheap", led_tube_cheap(), "blue pump 449 nm + yellow phosphor 565 nm + green spike 543 nm (sigma 5 nm), solved for 5100 K, Duv +0.012 (clear of the 5000 K switch between CRI reference illuminants)"),
         ("led-rgb-panel", rgb_panel(), "LED bands 458 / 523 / 628 nm (sigma 9 / 14 / 8 nm), solved for 5600 K, Duv 0"),
         ("led-rgbw-panel", rgbw_panel(), "the RGB bands plus a phosphor white (10 % of Y), solved for 5600 K, Duv 0"),
     ]
@@ -237,8 +237,8 @@ def gels():
     return [
         ("cto-full", conversion(5500.0, 3200.0), "ideal conversion: Planck(3200 K) / Planck(5500 K), peak in 380-780 nm = 1"),
         ("ctb-full", conversion(3200.0, 5500.0), "ideal conversion: Planck(5500 K) / Planck(3200 K), peak in 380-780 nm = 1"),
-        ("plus-green-full", 0.88 * (0.42 + 0.58 * gauss(535.0, 48.0)) + 0.0, "0.88 x (0.42 + 0.58 x Gaussian at 535 nm, sigma 48 nm): passes green, holds back blue and red"),
-        ("minus-green-full", 0.9 * (1.0 - 0.52 * gauss(545.0, 38.0)), "0.9 x (1 - 0.52 x Gaussian at 545 nm, sigma 38 nm): a magenta that holds back green"),
+        ("plus-green-full", 0.9 * (0.62 + 0.38 * gauss(560.0, 55.0)), "0.9 x (0.62 + 0.38 x Gaussian at 560 nm, sigma 55 nm): adds green along the normal to the Planckian locus (about +0.012 Duv on 4000 K)"),
+        ("minus-green-full", 0.9 * (1.0 - 0.32 * gauss(560.0, 50.0)), "0.9 x (1 - 0.32 x Gaussian at 560 nm, sigma 50 nm): a magenta that removes green (about -0.012 Duv on 4000 K)"),
         ("nd-03", np.full_like(WL, 10.0 ** -0.3), "flat 10^-0.3 (one stop)"),
         ("nd-06", np.full_like(WL, 10.0 ** -0.6), "flat 10^-0.6 (two stops)"),
         ("nd-09", np.full_like(WL, 10.0 ** -0.9), "flat 10^-0.9 (three stops)"),

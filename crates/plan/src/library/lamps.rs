@@ -307,7 +307,7 @@ static LAMPS: LazyLock<Vec<LampEntry>> = LazyLock::new(|| {
             "led-tube-cheap",
             "Cheap LED tube (green spike)",
             "led",
-            "Invented cool-white LED tube near 5000 K with a narrow green spike: it sits well above the Planckian locus (Duv about +0.012), the green cast that calls for minus green.",
+            "Invented cool-white LED tube near 5100 K with a narrow green spike: it sits well above the Planckian locus (Duv about +0.012), the green cast that calls for minus green.",
             Demo,
             None,
         ),
