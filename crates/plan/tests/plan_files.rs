@@ -248,3 +248,16 @@ fn every_fixture_loads() {
     }
     assert!(n >= 2);
 }
+
+#[test]
+fn the_example_in_the_plan_file_guide_loads_and_validates() {
+    let guide = include_str!("../../../docs/plan-files.md");
+    let start = guide.find("```ron\n").expect("a RON example") + "```ron\n".len();
+    let end = start + guide[start..].find("```").expect("end of the example");
+    let plan = lampwright_plan::files::plan_from_str(&guide[start..end]).unwrap();
+    assert_eq!(plan.name, "Kitchen interview");
+    assert_eq!(plan.sources.len(), 2);
+    assert!((plan.sources[1].dimmer - 0.7).abs() < 1e-12);
+    assert!(plan.sources[1].enabled, "omitted fields take their defaults");
+    assert!(validate(&plan).is_empty(), "{:#?}", validate(&plan));
+}

@@ -341,9 +341,9 @@ mod tests {
             let lab = lab_under(&d65, id);
             assert!(lab.l < last_l, "{id}: L* {}", lab.l);
             last_l = lab.l;
-            // Skin sits in the red-yellow quadrant, hue roughly 30–70°.
+            // Skin sits in the red-yellow quadrant, hue roughly 35–65°.
             let hue = lab.b.atan2(lab.a).to_degrees();
-            assert!((30.0..=70.0).contains(&hue), "{id}: hue {hue}");
+            assert!((35.0..=65.0).contains(&hue), "{id}: hue {hue}");
         }
     }
 
