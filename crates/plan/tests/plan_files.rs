@@ -258,6 +258,9 @@ fn the_example_in_the_plan_file_guide_loads_and_validates() {
     assert_eq!(plan.name, "Kitchen interview");
     assert_eq!(plan.sources.len(), 2);
     assert!((plan.sources[1].dimmer - 0.7).abs() < 1e-12);
-    assert!(plan.sources[1].enabled, "omitted fields take their defaults");
+    assert!(
+        plan.sources[1].enabled,
+        "omitted fields take their defaults"
+    );
     assert!(validate(&plan).is_empty(), "{:#?}", validate(&plan));
 }
