@@ -24,7 +24,7 @@ fn bench(c: &mut Criterion) {
         },
     );
     c.bench_function("validate café plan", |b| {
-        b.iter(|| validate(black_box(&plan)))
+        b.iter(|| validate(black_box(&plan)));
     });
     let eval = evaluate(&plan).expect("evaluates");
     for format in ReportFormat::ALL {

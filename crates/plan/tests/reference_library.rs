@@ -33,11 +33,12 @@ fn rows() -> Vec<Row> {
     lines
         .map(|l| {
             let c: Vec<&str> = l.split(',').collect();
-            let opt = |s: &str| (!s.is_empty()).then(|| s.parse::<f64>().unwrap());
+            let num = |s: &str| s.parse::<f64>().expect("a number in the fixture");
+            let opt = |s: &str| (!s.is_empty()).then(|| num(s));
             Row {
                 id: c[0].to_string(),
-                cct_k: c[1].parse().unwrap(),
-                duv: c[2].parse().unwrap(),
+                cct_k: num(c[1]),
+                duv: num(c[2]),
                 ra: opt(c[3]),
                 r9: opt(c[4]),
             }
