@@ -1,4 +1,4 @@
-//! Frame cost of the real window, headless (egui_kittest, no GPU): an idle
+//! Frame cost of the real window, headless (`egui_kittest`, no GPU): an idle
 //! frame, and a frame during a level-slider drag (one command, one plan
 //! evaluation, one redraw).
 

@@ -1,4 +1,4 @@
-//! Headless tests of the real window (egui_kittest, no display, no GPU):
+//! Headless tests of the real window (`egui_kittest`, no display, no GPU):
 //! they click through the flows a user follows and check the plan and the
 //! evaluation the window shows.
 

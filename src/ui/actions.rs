@@ -112,7 +112,10 @@ pub fn menu_bar(
                     cx.actions.push(Action::ExportSheet);
                 }
                 for format in ReportFormat::ALL {
-                    if ui.button(format!("Report ({})…", format.label())).clicked() {
+                    if ui
+                        .button(format!("Report ({})…", export::report_label(format)))
+                        .clicked()
+                    {
                         cx.actions.push(Action::ExportReport(format));
                     }
                 }
@@ -190,7 +193,7 @@ impl App {
                     self.replace_plan(plan, None);
                     self.notify("Opened the demo plan (invented data)");
                 }
-                Err((_, err)) => self.notify_error(err),
+                Err(err) => self.notify_error(err),
             },
             Action::Open => self.choose(Purpose::OpenPlan),
             Action::OpenPath(path) => self.open_path(&path),
@@ -202,7 +205,7 @@ impl App {
             Action::SaveTo(path) => self.save_to(&path),
             Action::Import(kind) => self.choose(Purpose::ImportCsv(kind)),
             Action::ImportPath(path, kind) => {
-                self.dialog = Some(Dialog::CsvKind(CsvImport::new(path, kind)))
+                self.dialog = Some(Dialog::CsvKind(CsvImport::new(path, kind)));
             }
             Action::Dropped(path) => {
                 let ext = path.extension().map(|e| e.to_string_lossy().to_lowercase());
@@ -285,6 +288,12 @@ impl App {
 
     fn export_sheet(&mut self, path: &Path) {
         let path = with_extension(path, "png");
+        if self.evaluator.is_stale() {
+            self.notify_error(
+                "Nothing to export: the plan on screen cannot be evaluated; fix it or undo first",
+            );
+            return;
+        }
         let Some(eval) = self.evaluator.evaluation() else {
             self.notify_error("Nothing to export: the plan has not been evaluated");
             return;
@@ -297,6 +306,12 @@ impl App {
 
     fn export_report(&mut self, path: &Path, format: ReportFormat) {
         let path = with_extension(path, format.extension());
+        if self.evaluator.is_stale() {
+            self.notify_error(
+                "Nothing to report: the plan on screen cannot be evaluated; fix it or undo first",
+            );
+            return;
+        }
         match export::report(&self.plan, self.evaluator.evaluation(), format, &path) {
             Ok(()) => self.notify(format!("Wrote the report {}", path.display())),
             Err(err) => self.notify_error(format!("Could not write the report: {err}")),

@@ -63,6 +63,9 @@ pub struct Notice {
 }
 
 /// The Lampwright window.
+// The flags are independent (closing allowed, dialog choice, first-frame
+// log, text focus); folding them into an enum would not say more.
+#[allow(clippy::struct_excessive_bools)]
 pub struct App {
     pub(super) plan: Plan,
     pub(super) path: Option<PathBuf>,
@@ -96,7 +99,7 @@ impl App {
             .unwrap_or_default();
         let (plan, demo_error) = match upstream::demo_plan() {
             Ok(plan) => (plan, None),
-            Err((plan, err)) => (plan, Some(err)),
+            Err(err) => (Plan::default(), Some(err)),
         };
         let mut app = App::with_plan(plan, prefs, started);
         if let Some(err) = demo_error {
@@ -104,11 +107,11 @@ impl App {
         }
         app.system_dialogs = options.system_dialogs && app.prefs.system_dialogs;
         app.log_first_frame = options.log_first_frame;
-        if let Some(spec) = &options.start_view {
-            app.view.apply_start_view(spec);
+        if let Some(spec) = options.start_view {
+            app.view.apply_start_view(&spec);
         }
-        if let Some(path) = &options.plan_path {
-            app.open_path(path);
+        if let Some(path) = options.plan_path {
+            app.open_path(&path);
         }
         app
     }
@@ -406,7 +409,7 @@ impl App {
         egui::CentralPanel::default()
             .frame(egui::Frame::central_panel(ui.style()).fill(theme::grey::BASE))
             .show(ui, |ui| {
-                compare::ui(ui, &mut cx, eval_error.as_deref(), &mut self.prefs)
+                compare::ui(ui, &mut cx, eval_error.as_deref(), &mut self.prefs);
             });
         drop_overlay(ui.ctx());
         self.text_focus = text_focus;

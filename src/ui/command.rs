@@ -283,54 +283,8 @@ pub fn apply(plan: &mut Plan, command: Command) -> Result<(), CommandError> {
     match command {
         Command::PlanName(name) => plan.name = name,
         Command::PlanNotes(notes) => plan.notes = notes,
-        Command::AddSource(mut source) => {
-            if plan.sources.len() >= MAX_SOURCES {
-                return Err(CommandError(format!(
-                    "a plan holds at most {MAX_SOURCES} sources"
-                )));
-            }
-            finite_non_negative(source.level_lux, "level")?;
-            source.id = plan.next_source_id();
-            // A new light reaches the main zone (the first), where the
-            // summary is read; the other zones are the user's call.
-            if let Some(main) = plan.zones.first_mut() {
-                main.reach.push(ZoneReach {
-                    source: source.id,
-                    level: ZoneLevel::AsSource,
-                });
-            }
-            plan.sources.push(*source);
-        }
-        Command::DuplicateSource(id) => {
-            if plan.sources.len() >= MAX_SOURCES {
-                return Err(CommandError(format!(
-                    "a plan holds at most {MAX_SOURCES} sources"
-                )));
-            }
-            let position = plan
-                .sources
-                .iter()
-                .position(|s| s.id == id)
-                .ok_or_else(|| CommandError(format!("no source with id {id} in the plan")))?;
-            let mut copy = plan.sources[position].clone();
-            copy.id = plan.next_source_id();
-            copy.name = format!("{} copy", copy.name);
-            copy.solo = false;
-            // The copy reaches the same zones at the same levels.
-            for zone in &mut plan.zones {
-                let reach: Vec<ZoneReach> = zone
-                    .reach
-                    .iter()
-                    .filter(|r| r.source == id)
-                    .map(|r| ZoneReach {
-                        source: copy.id,
-                        level: r.level.clone(),
-                    })
-                    .collect();
-                zone.reach.extend(reach);
-            }
-            plan.sources.insert(position + 1, copy);
-        }
+        Command::AddSource(source) => add_source(plan, *source)?,
+        Command::DuplicateSource(id) => duplicate_source(plan, id)?,
         Command::RemoveSource(id) => {
             let before = plan.sources.len();
             plan.sources.retain(|s| s.id != id);
@@ -382,23 +336,7 @@ pub fn apply(plan: &mut Plan, command: Command) -> Result<(), CommandError> {
         Command::Fit(fit) => plan.camera.fit = fit,
         Command::Adaptation(a) => plan.viewing.adaptation = a,
         Command::Display(d) => plan.viewing.display = d,
-        Command::AddZone(name) => {
-            if plan.zones.len() >= MAX_ZONES {
-                return Err(CommandError(format!(
-                    "a plan holds at most {MAX_ZONES} zones"
-                )));
-            }
-            let id = plan.next_zone_id();
-            let reach = plan
-                .sources
-                .iter()
-                .map(|s| ZoneReach {
-                    source: s.id,
-                    level: ZoneLevel::AsSource,
-                })
-                .collect();
-            plan.zones.push(Zone { id, name, reach });
-        }
+        Command::AddZone(name) => add_zone(plan, name)?,
         Command::RenameZone(id, name) => zone_mut(plan, id)?.name = name,
         Command::RemoveZone(id) => {
             zone_mut(plan, id)?;
@@ -408,28 +346,107 @@ pub fn apply(plan: &mut Plan, command: Command) -> Result<(), CommandError> {
             zone,
             source,
             level,
-        } => {
-            if plan.source(source).is_none() {
-                return Err(CommandError(format!(
-                    "no source with id {source} in the plan"
-                )));
-            }
-            if let Some(level) = &level {
-                check_level(level)?;
-            }
-            let zone = zone_mut(plan, zone)?;
-            match level {
-                None => zone.reach.retain(|r| r.source != source),
-                Some(level) => {
-                    if let Some(r) = zone.reach.iter_mut().find(|r| r.source == source) {
-                        r.level = level;
-                    } else {
-                        zone.reach.push(ZoneReach { source, level });
-                    }
-                }
+        } => set_reach(plan, zone, source, level)?,
+        Command::ReplacePlan(new_plan) => *plan = *new_plan,
+    }
+    Ok(())
+}
+
+fn add_source(plan: &mut Plan, mut source: Source) -> Result<(), CommandError> {
+    if plan.sources.len() >= MAX_SOURCES {
+        return Err(CommandError(format!(
+            "a plan holds at most {MAX_SOURCES} sources"
+        )));
+    }
+    finite_non_negative(source.level_lux, "level")?;
+    source.id = plan.next_source_id();
+    // A new light reaches the main zone (the first), where the summary is
+    // read; the other zones are the user's call.
+    if let Some(main) = plan.zones.first_mut() {
+        main.reach.push(ZoneReach {
+            source: source.id,
+            level: ZoneLevel::AsSource,
+        });
+    }
+    plan.sources.push(source);
+    Ok(())
+}
+
+fn duplicate_source(plan: &mut Plan, id: SourceId) -> Result<(), CommandError> {
+    if plan.sources.len() >= MAX_SOURCES {
+        return Err(CommandError(format!(
+            "a plan holds at most {MAX_SOURCES} sources"
+        )));
+    }
+    let position = plan
+        .sources
+        .iter()
+        .position(|s| s.id == id)
+        .ok_or_else(|| CommandError(format!("no source with id {id} in the plan")))?;
+    let mut copy = plan.sources[position].clone();
+    copy.id = plan.next_source_id();
+    copy.name = format!("{} copy", copy.name);
+    copy.solo = false;
+    // The copy reaches the same zones at the same levels.
+    for zone in &mut plan.zones {
+        let reach: Vec<ZoneReach> = zone
+            .reach
+            .iter()
+            .filter(|r| r.source == id)
+            .map(|r| ZoneReach {
+                source: copy.id,
+                level: r.level.clone(),
+            })
+            .collect();
+        zone.reach.extend(reach);
+    }
+    plan.sources.insert(position + 1, copy);
+    Ok(())
+}
+
+fn add_zone(plan: &mut Plan, name: String) -> Result<(), CommandError> {
+    if plan.zones.len() >= MAX_ZONES {
+        return Err(CommandError(format!(
+            "a plan holds at most {MAX_ZONES} zones"
+        )));
+    }
+    let id = plan.next_zone_id();
+    let reach = plan
+        .sources
+        .iter()
+        .map(|s| ZoneReach {
+            source: s.id,
+            level: ZoneLevel::AsSource,
+        })
+        .collect();
+    plan.zones.push(Zone { id, name, reach });
+    Ok(())
+}
+
+fn set_reach(
+    plan: &mut Plan,
+    zone: ZoneId,
+    source: SourceId,
+    level: Option<ZoneLevel>,
+) -> Result<(), CommandError> {
+    if plan.source(source).is_none() {
+        return Err(CommandError(format!(
+            "no source with id {source} in the plan"
+        )));
+    }
+    if let Some(level) = &level {
+        check_level(level)?;
+    }
+    let zone = zone_mut(plan, zone)?;
+    match level {
+        None => zone.reach.retain(|r| r.source != source),
+        Some(level) => {
+            if let Some(r) = zone.reach.iter_mut().find(|r| r.source == source) {
+                r.level = level;
+            } else {
+                zone.reach.push(ZoneReach { source, level });
             }
         }
-        Command::ReplacePlan(new_plan) => *plan = *new_plan,
     }
     Ok(())
 }

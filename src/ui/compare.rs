@@ -108,7 +108,7 @@ pub fn visible_subjects<'a>(
     match sort {
         SortMode::PlanOrder => shown.sort_by_key(|r| r.index),
         SortMode::DeltaEHighToLow => {
-            shown.sort_by(|a, b| b.de2000.total_cmp(&a.de2000).then(a.index.cmp(&b.index)))
+            shown.sort_by(|a, b| b.de2000.total_cmp(&a.de2000).then(a.index.cmp(&b.index)));
         }
         SortMode::Group => shown.sort_by(|a, b| a.group.cmp(&b.group).then(a.index.cmp(&b.index))),
     }
@@ -338,71 +338,62 @@ fn across_zones(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
             ui.horizontal_top(|ui| {
                 for zone in &eval.zones {
                     let result = zone.subjects.iter().find(|r| r.index == current.index);
-                    theme::card()
-                        .fill(theme::grey::SWATCH_SURROUND)
-                        .inner_margin(8)
-                        .show(ui, |ui| {
-                            ui.set_width(180.0);
-                            let dark = egui::Color32::from_gray(18);
-                            ui.label(RichText::new(&zone.name).strong().color(dark).size(15.0));
-                            ui.label(
-                                RichText::new(format!(
-                                    "{} · {} · {}",
-                                    format::lux(zone.light.illuminance_lux),
-                                    format::stops(zone.stops_from_main),
-                                    format::cct(zone.light.cct_k)
-                                ))
-                                .color(egui::Color32::from_gray(35))
-                                .small(),
-                            );
-                            match result {
-                                Some(r) => {
-                                    ui.spacing_mut().item_spacing.y = 2.0;
-                                    let (eye, _) = ui.allocate_exact_size(
-                                        Vec2::new(180.0, SWATCH_HEIGHT),
-                                        Sense::hover(),
-                                    );
-                                    widgets::paint_swatch(ui, eye, r.eye_rgb8, r.eye_in_gamut);
-                                    let (cam, _) = ui.allocate_exact_size(
-                                        Vec2::new(180.0, SWATCH_HEIGHT),
-                                        Sense::hover(),
-                                    );
-                                    widgets::paint_swatch(
-                                        ui,
-                                        cam,
-                                        r.camera_rgb8,
-                                        r.camera_in_gamut,
-                                    );
-                                    ui.horizontal(|ui| {
-                                        let band = DeltaEBand::of(r.de2000);
-                                        ui.label(
-                                            RichText::new(format!(
-                                                "ΔE00 {}",
-                                                format::delta_e(r.de2000)
-                                            ))
-                                            .color(dark)
-                                            .size(15.0),
-                                        );
-                                        widgets::badge(ui, band.word(), band.color());
-                                    });
-                                    if let Some(m) = zone.mired_from_white_balance {
-                                        ui.label(
-                                            RichText::new(format!(
-                                                "{} mired from white balance",
-                                                format::signed(m, 0)
-                                            ))
-                                            .color(egui::Color32::from_gray(35))
-                                            .small(),
-                                        );
-                                    }
-                                }
-                                None => {
-                                    ui.label(RichText::new("not in this zone").color(dark));
-                                }
-                            }
-                        });
+                    zone_card(ui, zone, result);
                 }
             });
+        });
+}
+
+/// One zone's column: its level and light, the subject as the eye sees it
+/// (top) and as the camera renders it (bottom).
+fn zone_card(ui: &mut Ui, zone: &lampwright_plan::ZoneEvaluation, result: Option<&SubjectResult>) {
+    let dark = egui::Color32::from_gray(18);
+    let soft = egui::Color32::from_gray(35);
+    theme::card()
+        .fill(theme::grey::SWATCH_SURROUND)
+        .inner_margin(8)
+        .show(ui, |ui| {
+            ui.set_width(180.0);
+            ui.label(RichText::new(&zone.name).strong().color(dark).size(15.0));
+            ui.label(
+                RichText::new(format!(
+                    "{} · {} · {}",
+                    format::lux(zone.light.illuminance_lux),
+                    format::stops(zone.stops_from_main),
+                    format::cct(zone.light.cct_k)
+                ))
+                .color(soft)
+                .small(),
+            );
+            let Some(r) = result else {
+                ui.label(RichText::new("not in this zone").color(dark));
+                return;
+            };
+            ui.spacing_mut().item_spacing.y = 2.0;
+            for (rgb8, in_gamut) in [
+                (r.eye_rgb8, r.eye_in_gamut),
+                (r.camera_rgb8, r.camera_in_gamut),
+            ] {
+                let (rect, _) =
+                    ui.allocate_exact_size(Vec2::new(180.0, SWATCH_HEIGHT), Sense::hover());
+                widgets::paint_swatch(ui, rect, rgb8, in_gamut);
+            }
+            ui.horizontal(|ui| {
+                let band = DeltaEBand::of(r.de2000);
+                ui.label(
+                    RichText::new(format!("ΔE00 {}", format::delta_e(r.de2000)))
+                        .color(dark)
+                        .size(15.0),
+                );
+                widgets::badge(ui, band.word(), band.color());
+            });
+            if let Some(m) = zone.mired_from_white_balance {
+                ui.label(
+                    RichText::new(format!("{} mired from white balance", format::signed(m, 0)))
+                        .color(soft)
+                        .small(),
+                );
+            }
         });
 }
 

@@ -46,6 +46,7 @@ impl Purpose {
             Purpose::ExportReport(ReportFormat::Html) => ("HTML report", &["html"]),
             Purpose::ExportReport(ReportFormat::Csv) => ("CSV report", &["csv"]),
             Purpose::ExportReport(ReportFormat::Json) => ("JSON report", &["json"]),
+            Purpose::ExportReport(ReportFormat::Text) => ("Text report", &["txt"]),
         }
     }
 
@@ -324,13 +325,14 @@ fn browse(ctx: &egui::Context, browser: &mut Browser, recent: &[PathBuf]) -> Out
             let field =
                 ui.add(egui::TextEdit::singleline(&mut browser.path_text).desired_width(520.0));
             let field = field.labelled_by(label.id);
-            if field.lost_focus() && ui.input(|i| i.key_pressed(egui::Key::Enter)) {
-                if let Some(path) = browser.chosen() {
-                    if path.is_dir() {
-                        go_to = Some(path);
-                    } else {
-                        outcome = Outcome::Run(browser.purpose.action_for(path));
-                    }
+            if field.lost_focus()
+                && ui.input(|i| i.key_pressed(egui::Key::Enter))
+                && let Some(path) = browser.chosen()
+            {
+                if path.is_dir() {
+                    go_to = Some(path);
+                } else {
+                    outcome = Outcome::Run(browser.purpose.action_for(path));
                 }
             }
         });
@@ -343,23 +345,8 @@ fn browse(ctx: &egui::Context, browser: &mut Browser, recent: &[PathBuf]) -> Out
                 go_to = Some(parent.to_path_buf());
             }
         });
-        if !recent.is_empty() {
-            ui.horizontal_wrapped(|ui| {
-                ui.label(theme::caption("Recent folders:"));
-                for folder in recent.iter().take(6) {
-                    let name = folder.file_name().map_or_else(
-                        || folder.display().to_string(),
-                        |n| n.to_string_lossy().into_owned(),
-                    );
-                    if ui
-                        .small_button(name)
-                        .on_hover_text(folder.display().to_string())
-                        .clicked()
-                    {
-                        go_to = Some(folder.clone());
-                    }
-                }
-            });
+        if let Some(folder) = recent_folders(ui, recent) {
+            go_to = Some(folder);
         }
         if let Some(err) = &browser.error {
             ui.colored_label(theme::WARNING, err);
@@ -424,6 +411,31 @@ fn browse(ctx: &egui::Context, browser: &mut Browser, recent: &[PathBuf]) -> Out
         outcome = Outcome::Close;
     }
     outcome
+}
+
+/// Buttons for the recent folders; returns the one clicked.
+fn recent_folders(ui: &mut egui::Ui, recent: &[PathBuf]) -> Option<PathBuf> {
+    let mut clicked = None;
+    if recent.is_empty() {
+        return None;
+    }
+    ui.horizontal_wrapped(|ui| {
+        ui.label(theme::caption("Recent folders:"));
+        for folder in recent.iter().take(6) {
+            let name = folder.file_name().map_or_else(
+                || folder.display().to_string(),
+                |n| n.to_string_lossy().into_owned(),
+            );
+            if ui
+                .small_button(name)
+                .on_hover_text(folder.display().to_string())
+                .clicked()
+            {
+                clicked = Some(folder.clone());
+            }
+        }
+    });
+    clicked
 }
 
 fn csv_kind(ctx: &egui::Context, import: &mut CsvImport) -> Outcome {

@@ -8,39 +8,16 @@ use image::{Rgba, RgbaImage};
 use lampwright_plan::{Display, Evaluation, Plan};
 use std::path::Path;
 
-/// Report formats.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum ReportFormat {
-    /// A self-contained HTML page.
-    Html,
-    /// One row per subject.
-    Csv,
-    /// Everything, machine-readable.
-    Json,
-}
+pub use lampwright_plan::report::ReportFormat;
 
-impl ReportFormat {
-    /// All formats.
-    pub const ALL: [ReportFormat; 3] = [ReportFormat::Html, ReportFormat::Csv, ReportFormat::Json];
-
-    /// Menu label.
-    #[must_use]
-    pub fn label(self) -> &'static str {
-        match self {
-            ReportFormat::Html => "HTML",
-            ReportFormat::Csv => "CSV",
-            ReportFormat::Json => "JSON",
-        }
-    }
-
-    /// File extension.
-    #[must_use]
-    pub fn extension(self) -> &'static str {
-        match self {
-            ReportFormat::Html => "html",
-            ReportFormat::Csv => "csv",
-            ReportFormat::Json => "json",
-        }
+/// Menu label of a report format.
+#[must_use]
+pub fn report_label(format: ReportFormat) -> &'static str {
+    match format {
+        ReportFormat::Text => "plain text",
+        ReportFormat::Json => "JSON",
+        ReportFormat::Csv => "CSV",
+        ReportFormat::Html => "HTML",
     }
 }
 
@@ -52,7 +29,8 @@ pub fn report(
     path: &Path,
 ) -> Result<(), String> {
     let eval = eval.ok_or("the plan has not been evaluated")?;
-    let text = super::upstream::report(plan, eval, format)?;
+    let text =
+        lampwright_plan::report::render_report(plan, eval, format).map_err(|e| e.to_string())?;
     std::fs::write(path, text).map_err(|e| format!("{}: {e}", path.display()))
 }
 
@@ -249,10 +227,9 @@ impl TextPainter {
                             continue;
                         }
                         let pixel = img.get_pixel_mut(px as u32, py as u32);
-                        for c in 0..3 {
-                            let under = f32::from(pixel.0[c]);
-                            pixel.0[c] =
-                                (under + (f32::from(color[c]) - under) * coverage).round() as u8;
+                        for (channel, ink) in pixel.0.iter_mut().zip(color) {
+                            let under = f32::from(*channel);
+                            *channel = (under + (f32::from(ink) - under) * coverage).round() as u8;
                         }
                     }
                 }

@@ -44,6 +44,8 @@ impl SortMode {
 }
 
 /// The preferences.
+// Each flag is one independent View-menu or File-menu toggle.
+#[allow(clippy::struct_excessive_bools)]
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
 pub struct Prefs {

@@ -79,7 +79,6 @@ pub fn apply(ctx: &egui::Context) {
 }
 
 /// A frame for cards (one source, one readout, one swatch pair).
-#[must_use]
 pub fn card() -> egui::Frame {
     egui::Frame::new()
         .fill(grey::CARD)

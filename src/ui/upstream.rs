@@ -12,16 +12,10 @@ pub fn evaluate(plan: &Plan) -> Result<Evaluation, String> {
     lampwright_plan::evaluate(plan).map_err(|e| e.to_string())
 }
 
-/// The built-in demo plan the window opens on, or an empty plan and the
-/// reason when the embedded demo cannot be read (a build mistake the plan
-/// crate's tests catch).
-pub fn demo_plan() -> Result<Plan, (Plan, String)> {
-    lampwright_plan::default_demo().map_err(|e| {
-        (
-            Plan::default(),
-            format!("the demo plan could not be read: {e}"),
-        )
-    })
+/// The built-in demo plan the window opens on, or the reason it cannot be
+/// read (a build mistake the plan crate's tests catch).
+pub fn demo_plan() -> Result<Plan, String> {
+    lampwright_plan::default_demo().map_err(|e| format!("the demo plan could not be read: {e}"))
 }
 
 /// Read a plan file.
@@ -130,7 +124,7 @@ pub fn import_csv(
                 &mut custom.gels
             };
             for entry in list.iter_mut().filter(|s| rename && ids.contains(&s.id)) {
-                entry.name = name.to_owned();
+                name.clone_into(&mut entry.name);
             }
         }
         LibraryKind::Subject => {
@@ -140,10 +134,10 @@ pub fn import_csv(
                 .filter(|s| ids.contains(&s.spectrum.id))
             {
                 if rename {
-                    entry.spectrum.name = name.to_owned();
+                    name.clone_into(&mut entry.spectrum.name);
                 }
                 if !group.is_empty() {
-                    entry.group = group.to_owned();
+                    group.clone_into(&mut entry.group);
                 }
             }
             for id in &ids {
@@ -159,7 +153,7 @@ pub fn import_csv(
                 .iter_mut()
                 .filter(|c| rename && ids.contains(&c.id))
             {
-                entry.name = name.to_owned();
+                name.clone_into(&mut entry.name);
             }
             if let Some(id) = ids.first() {
                 updated.camera.camera = CameraRef::Custom(id.clone());
@@ -185,19 +179,9 @@ pub fn import_csv(
     Ok((updated, what))
 }
 
-/// A report of the plan and its evaluation as text in the given format.
-pub fn report(
-    plan: &Plan,
-    eval: &Evaluation,
-    format: super::export::ReportFormat,
-) -> Result<String, String> {
-    let _ = (plan, eval, format);
-    Err("reports are not in this build yet".into())
-}
-
 /// A subject's reflectance on the 360–830 nm grid, for plotting.
 #[must_use]
-pub fn subject_reflectance(plan: &Plan, subject: &lampwright_plan::SubjectRef) -> Option<Vec<f64>> {
+pub fn subject_reflectance(plan: &Plan, subject: &SubjectRef) -> Option<Vec<f64>> {
     lampwright_plan::resolve::subject_reflectance(plan, subject)
         .ok()
         .map(|s| s.reflectance.values().to_vec())

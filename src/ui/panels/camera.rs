@@ -55,159 +55,178 @@ fn fit_label(fit: FitMethod) -> &'static str {
 
 /// Draw the camera and viewing tab.
 pub fn ui(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
-    let plan = cx.plan;
-    let settings = &plan.camera;
     ui.heading("Camera");
     egui::Grid::new("camera-grid")
         .num_columns(2)
         .spacing([10.0, 8.0])
         .show(ui, |ui| {
-            ui.label("Sensitivities");
-            ui.horizontal(|ui| {
-                egui::ComboBox::from_id_salt("camera")
-                    .selected_text(catalog::camera_name(plan, &settings.camera))
-                    .width(220.0)
-                    .show_ui(ui, |ui| {
-                        for entry in catalog::cameras(plan) {
-                            let camera = if entry.custom {
-                                CameraRef::Custom(entry.id.clone())
-                            } else {
-                                CameraRef::Library(entry.id.clone())
-                            };
-                            let text = if entry.custom {
-                                format!("{} (imported)", entry.name)
-                            } else {
-                                entry.name.clone()
-                            };
-                            let r = ui.selectable_label(settings.camera == camera, text);
-                            let r = if entry.description.is_empty() {
-                                r
-                            } else {
-                                r.on_hover_text(&entry.description)
-                            };
-                            if r.clicked() && settings.camera != camera {
-                                cx.push(Command::Camera(camera));
-                            }
-                        }
-                        if ui
-                            .selectable_label(
-                                settings.camera == CameraRef::Colorimetric,
-                                "Ideal colorimetric camera",
-                            )
-                            .clicked()
-                            && settings.camera != CameraRef::Colorimetric
-                        {
-                            cx.push(Command::Camera(CameraRef::Colorimetric));
-                        }
-                    })
-                    .response
-                    .accessible_name("Sensitivities");
-                if ui
-                    .button("Import…")
-                    .on_hover_text("Measured r, g, b sensitivities as CSV")
-                    .clicked()
-                {
-                    cx.actions.push(Action::Import(Some(LibraryKind::Camera)));
-                }
-            });
-            ui.end_row();
-
-            ui.label("White balance");
-            egui::ComboBox::from_id_salt("wb")
-                .selected_text(wb_label(&settings.white_balance))
-                .width(220.0)
-                .show_ui(ui, |ui| {
-                    let current = &settings.white_balance;
-                    let mut choices = vec![
-                        WhiteBalanceSetting::GreyCard,
-                        WhiteBalanceSetting::Kelvin(match current {
-                            WhiteBalanceSetting::Kelvin(k) => *k,
-                            _ => 5600.0,
-                        }),
-                        WhiteBalanceSetting::AutoGreyWorld,
-                        WhiteBalanceSetting::AutoBrightestNeutral,
-                    ];
-                    choices.extend(PRESETS.iter().map(|(p, _)| WhiteBalanceSetting::Preset(*p)));
-                    for choice in choices {
-                        let same_kind = std::mem::discriminant(&choice)
-                            == std::mem::discriminant(current)
-                            && !matches!(choice, WhiteBalanceSetting::Preset(_));
-                        let checked = same_kind || &choice == current;
-                        if ui.selectable_label(checked, wb_label(&choice)).clicked()
-                            && &choice != current
-                        {
-                            cx.push(Command::WhiteBalance(choice));
-                        }
-                    }
-                })
-                .response
-                .accessible_name("White balance");
-            ui.end_row();
-
-            if let WhiteBalanceSetting::Kelvin(k) = settings.white_balance {
-                ui.label("");
-                let mut kelvin = k;
-                let slider = egui::Slider::new(&mut kelvin, 2000.0..=10_000.0)
-                    .clamping(egui::SliderClamping::Edits)
-                    .logarithmic(true)
-                    .step_by(10.0)
-                    .fixed_decimals(0)
-                    .suffix(" K")
-                    .text("white balance");
-                if ui.add(slider).changed() {
-                    cx.push(Command::WhiteBalance(WhiteBalanceSetting::Kelvin(kelvin)));
-                }
-                ui.end_row();
-            }
-
-            ui.label("Matrix");
-            egui::ComboBox::from_id_salt("matrix")
-                .selected_text(matrix_label(settings.matrix))
-                .width(220.0)
-                .show_ui(ui, |ui| {
-                    for mode in [
-                        MatrixMode::Factory,
-                        MatrixMode::DualIlluminant,
-                        MatrixMode::SceneProfile,
-                    ] {
-                        if ui
-                            .selectable_label(settings.matrix == mode, matrix_label(mode))
-                            .clicked()
-                            && settings.matrix != mode
-                        {
-                            cx.push(Command::Matrix(mode));
-                        }
-                    }
-                })
-                .response
-                .accessible_name("Matrix");
-            ui.end_row();
-
-            ui.label("Matrix fit");
-            egui::ComboBox::from_id_salt("fit")
-                .selected_text(fit_label(settings.fit))
-                .width(220.0)
-                .show_ui(ui, |ui| {
-                    for fit in [
-                        FitMethod::Linear,
-                        FitMethod::WhitePreserving,
-                        FitMethod::De2000,
-                        FitMethod::RootPoly,
-                    ] {
-                        if ui
-                            .selectable_label(settings.fit == fit, fit_label(fit))
-                            .clicked()
-                            && settings.fit != fit
-                        {
-                            cx.push(Command::Fit(fit));
-                        }
-                    }
-                })
-                .response
-                .accessible_name("Matrix fit");
-            ui.end_row();
+            camera_row(ui, cx);
+            white_balance_rows(ui, cx);
+            matrix_rows(ui, cx);
         });
+    camera_figures(ui, cx);
+    viewing(ui, cx);
+}
 
+/// Which sensitivities.
+fn camera_row(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
+    let plan = cx.plan;
+    let settings = &plan.camera;
+    ui.label("Sensitivities");
+    ui.horizontal(|ui| {
+        egui::ComboBox::from_id_salt("camera")
+            .selected_text(catalog::camera_name(plan, &settings.camera))
+            .width(220.0)
+            .show_ui(ui, |ui| {
+                for entry in catalog::cameras(plan) {
+                    let camera = if entry.custom {
+                        CameraRef::Custom(entry.id.clone())
+                    } else {
+                        CameraRef::Library(entry.id.clone())
+                    };
+                    let text = if entry.custom {
+                        format!("{} (imported)", entry.name)
+                    } else {
+                        entry.name.clone()
+                    };
+                    let r = ui.selectable_label(settings.camera == camera, text);
+                    let r = if entry.description.is_empty() {
+                        r
+                    } else {
+                        r.on_hover_text(&entry.description)
+                    };
+                    if r.clicked() && settings.camera != camera {
+                        cx.push(Command::Camera(camera));
+                    }
+                }
+                if ui
+                    .selectable_label(
+                        settings.camera == CameraRef::Colorimetric,
+                        "Ideal colorimetric camera",
+                    )
+                    .clicked()
+                    && settings.camera != CameraRef::Colorimetric
+                {
+                    cx.push(Command::Camera(CameraRef::Colorimetric));
+                }
+            })
+            .response
+            .accessible_name("Sensitivities");
+        if ui
+            .button("Import…")
+            .on_hover_text("Measured r, g, b sensitivities as CSV")
+            .clicked()
+        {
+            cx.actions.push(Action::Import(Some(LibraryKind::Camera)));
+        }
+    });
+    ui.end_row();
+}
+
+/// White-balance mode and Kelvin.
+fn white_balance_rows(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
+    let plan = cx.plan;
+    let settings = &plan.camera;
+    ui.label("White balance");
+    egui::ComboBox::from_id_salt("wb")
+        .selected_text(wb_label(&settings.white_balance))
+        .width(220.0)
+        .show_ui(ui, |ui| {
+            let current = &settings.white_balance;
+            let mut choices = vec![
+                WhiteBalanceSetting::GreyCard,
+                WhiteBalanceSetting::Kelvin(match current {
+                    WhiteBalanceSetting::Kelvin(k) => *k,
+                    _ => 5600.0,
+                }),
+                WhiteBalanceSetting::AutoGreyWorld,
+                WhiteBalanceSetting::AutoBrightestNeutral,
+            ];
+            choices.extend(PRESETS.iter().map(|(p, _)| WhiteBalanceSetting::Preset(*p)));
+            for choice in choices {
+                let same_kind = std::mem::discriminant(&choice) == std::mem::discriminant(current)
+                    && !matches!(choice, WhiteBalanceSetting::Preset(_));
+                let checked = same_kind || &choice == current;
+                if ui.selectable_label(checked, wb_label(&choice)).clicked() && &choice != current {
+                    cx.push(Command::WhiteBalance(choice));
+                }
+            }
+        })
+        .response
+        .accessible_name("White balance");
+    ui.end_row();
+
+    if let WhiteBalanceSetting::Kelvin(k) = settings.white_balance {
+        ui.label("");
+        let mut kelvin = k;
+        let slider = egui::Slider::new(&mut kelvin, 2000.0..=10_000.0)
+            .clamping(egui::SliderClamping::Edits)
+            .logarithmic(true)
+            .step_by(10.0)
+            .fixed_decimals(0)
+            .suffix(" K")
+            .text("white balance");
+        if ui.add(slider).changed() {
+            cx.push(Command::WhiteBalance(WhiteBalanceSetting::Kelvin(kelvin)));
+        }
+        ui.end_row();
+    }
+}
+
+/// Matrix mode and fit.
+fn matrix_rows(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
+    let plan = cx.plan;
+    let settings = &plan.camera;
+    ui.label("Matrix");
+    egui::ComboBox::from_id_salt("matrix")
+        .selected_text(matrix_label(settings.matrix))
+        .width(220.0)
+        .show_ui(ui, |ui| {
+            for mode in [
+                MatrixMode::Factory,
+                MatrixMode::DualIlluminant,
+                MatrixMode::SceneProfile,
+            ] {
+                if ui
+                    .selectable_label(settings.matrix == mode, matrix_label(mode))
+                    .clicked()
+                    && settings.matrix != mode
+                {
+                    cx.push(Command::Matrix(mode));
+                }
+            }
+        })
+        .response
+        .accessible_name("Matrix");
+    ui.end_row();
+
+    ui.label("Matrix fit");
+    egui::ComboBox::from_id_salt("fit")
+        .selected_text(fit_label(settings.fit))
+        .width(220.0)
+        .show_ui(ui, |ui| {
+            for fit in [
+                FitMethod::Linear,
+                FitMethod::WhitePreserving,
+                FitMethod::De2000,
+                FitMethod::RootPoly,
+            ] {
+                if ui
+                    .selectable_label(settings.fit == fit, fit_label(fit))
+                    .clicked()
+                    && settings.fit != fit
+                {
+                    cx.push(Command::Fit(fit));
+                }
+            }
+        })
+        .response
+        .accessible_name("Matrix fit");
+    ui.end_row();
+}
+
+/// The camera's figures under this light.
+fn camera_figures(ui: &mut Ui, cx: &PanelCtx<'_>) {
     if let Some(eval) = cx.eval {
         let cam = &eval.camera;
         ui.add_space(4.0);
@@ -227,7 +246,11 @@ pub fn ui(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
             ));
         });
     }
+}
 
+/// Adaptation and display space.
+fn viewing(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
+    let plan = cx.plan;
     ui.add_space(10.0);
     ui.heading("Viewing");
     let viewing = plan.viewing;

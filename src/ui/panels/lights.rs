@@ -144,159 +144,171 @@ fn source_card(
     source: &Source,
     key_id: Option<u32>,
 ) {
-    let plan = cx.plan;
     let id = source.id;
     let figures: Option<&SourceFigures> = cx
         .eval
         .and_then(|e| e.sources.iter().find(|f| f.source_id == id));
-    let lit = plan.is_lit(source);
-    let frame = theme::card();
-    frame.show(ui, |ui| {
+    theme::card().show(ui, |ui| {
         ui.set_width(ui.available_width());
         ui.push_id(("source", id), |ui| {
-            // Name, role, on, solo.
-            ui.horizontal(|ui| {
-                let (dot, _) = ui.allocate_exact_size(egui::vec2(12.0, 12.0), egui::Sense::hover());
-                let color = if lit {
-                    widgets::source_color(index)
-                } else {
-                    theme::grey::EDGE
-                };
-                ui.painter().circle_filled(dot.center(), 5.0, color);
-                let mut name = source.name.clone();
-                let field = ui
-                    .add(
-                        egui::TextEdit::singleline(&mut name)
-                            .desired_width(130.0)
-                            .font(egui::TextStyle::Heading),
-                    )
-                    .accessible_name("Source name");
-                cx.track_focus(&field);
-                if field.changed() {
-                    cx.push(Command::Source(id, SourceEdit::Name(name)));
-                }
-                egui::ComboBox::from_id_salt("role")
-                    .selected_text(source.role.label())
-                    .width(92.0)
-                    .show_ui(ui, |ui| {
-                        for role in SourceRole::ALL {
-                            if ui
-                                .selectable_label(source.role == role, role.label())
-                                .clicked()
-                                && role != source.role
-                            {
-                                cx.push(Command::Source(id, SourceEdit::Role(role)));
-                            }
-                        }
-                    })
-                    .response
-                    .accessible_name("Role");
-                let mut on = source.enabled;
-                if ui.checkbox(&mut on, "On").changed() {
-                    cx.push(Command::Source(id, SourceEdit::Enabled(on)));
-                }
-                let mut solo = source.solo;
-                if ui
-                    .checkbox(&mut solo, "Solo")
-                    .on_hover_text("Light the scene with soloed sources only")
-                    .changed()
-                {
-                    cx.push(Command::Source(id, SourceEdit::Solo(solo)));
-                }
-            });
-
-            // Lamp.
-            ui.horizontal(|ui| {
-                ui.label(theme::caption("Lamp"));
-                ui.label(RichText::new(catalog::lamp_name(plan, &source.lamp)).strong());
-                let entries = lamp_entries(plan);
-                if let Some(entry) = widgets::entry_picker(
-                    ui,
-                    "Change lamp…",
-                    &entries,
-                    &mut cx.view.lamp_search,
-                    None,
-                ) {
-                    cx.push(Command::Source(
-                        id,
-                        SourceEdit::Lamp(lamp_from_entry(&entry)),
-                    ));
-                }
-            });
-            match source.lamp {
-                LampRef::Blackbody { cct_k } | LampRef::Daylight { cct_k } => {
-                    let daylight = matches!(source.lamp, LampRef::Daylight { .. });
-                    let range = if daylight {
-                        4000.0..=25_000.0
-                    } else {
-                        1000.0..=20_000.0
-                    };
-                    let mut k = cct_k;
-                    ui.horizontal(|ui| {
-                        ui.label(theme::caption("Temperature"));
-                        if ui
-                            .add(
-                                egui::DragValue::new(&mut k)
-                                    .clamp_existing_to_range(false)
-                                    .range(range)
-                                    .speed(10.0)
-                                    .suffix(" K"),
-                            )
-                            .changed()
-                        {
-                            let lamp = if daylight {
-                                LampRef::Daylight { cct_k: k }
-                            } else {
-                                LampRef::Blackbody { cct_k: k }
-                            };
-                            cx.push(Command::Source(id, SourceEdit::Lamp(lamp)));
-                        }
-                    });
-                }
-                LampRef::Library(_) | LampRef::Custom(_) => {}
-            }
-
+            header_row(ui, cx, index, source);
+            lamp_rows(ui, cx, source);
             level_row(ui, cx, source, key_id, figures);
-
-            if catalog::lamp_has_filament(&source.lamp) {
-                let mut percent = source.dimmer * 100.0;
-                ui.horizontal(|ui| {
-                    ui.label(theme::caption("Dimmer"));
-                    let slider = egui::Slider::new(&mut percent, 10.0..=100.0)
-                        .clamping(egui::SliderClamping::Edits)
-                        .suffix(" %")
-                        .fixed_decimals(0)
-                        .text("voltage");
-                    if ui
-                        .add(slider)
-                        .on_hover_text("A filament dims warmer: its colour follows the voltage")
-                        .changed()
-                    {
-                        cx.push(Command::Source(id, SourceEdit::Dimmer(percent / 100.0)));
-                    }
-                });
-            }
-
+            dimmer_row(ui, cx, source);
             gel_stack(ui, cx, source);
+            footer_row(ui, cx, source);
+        });
+    });
+}
 
+/// Name, role, on, solo.
+fn header_row(ui: &mut Ui, cx: &mut PanelCtx<'_>, index: usize, source: &Source) {
+    let id = source.id;
+    let lit = cx.plan.is_lit(source);
+    ui.horizontal(|ui| {
+        let (dot, _) = ui.allocate_exact_size(egui::vec2(12.0, 12.0), egui::Sense::hover());
+        let color = if lit {
+            widgets::source_color(index)
+        } else {
+            theme::grey::EDGE
+        };
+        ui.painter().circle_filled(dot.center(), 5.0, color);
+        let mut name = source.name.clone();
+        let field = ui
+            .add(
+                egui::TextEdit::singleline(&mut name)
+                    .desired_width(130.0)
+                    .font(egui::TextStyle::Heading),
+            )
+            .accessible_name("Source name");
+        cx.track_focus(&field);
+        if field.changed() {
+            cx.push(Command::Source(id, SourceEdit::Name(name)));
+        }
+        egui::ComboBox::from_id_salt("role")
+            .selected_text(source.role.label())
+            .width(92.0)
+            .show_ui(ui, |ui| {
+                for role in SourceRole::ALL {
+                    if ui
+                        .selectable_label(source.role == role, role.label())
+                        .clicked()
+                        && role != source.role
+                    {
+                        cx.push(Command::Source(id, SourceEdit::Role(role)));
+                    }
+                }
+            })
+            .response
+            .accessible_name("Role");
+        let mut on = source.enabled;
+        if ui.checkbox(&mut on, "On").changed() {
+            cx.push(Command::Source(id, SourceEdit::Enabled(on)));
+        }
+        let mut solo = source.solo;
+        if ui
+            .checkbox(&mut solo, "Solo")
+            .on_hover_text("Light the scene with soloed sources only")
+            .changed()
+        {
+            cx.push(Command::Source(id, SourceEdit::Solo(solo)));
+        }
+    });
+}
+
+/// The lamp, and its temperature for the generic ones.
+fn lamp_rows(ui: &mut Ui, cx: &mut PanelCtx<'_>, source: &Source) {
+    let plan = cx.plan;
+    let id = source.id;
+    ui.horizontal(|ui| {
+        ui.label(theme::caption("Lamp"));
+        ui.label(RichText::new(catalog::lamp_name(plan, &source.lamp)).strong());
+        let entries = lamp_entries(plan);
+        if let Some(entry) =
+            widgets::entry_picker(ui, "Change lamp…", &entries, &mut cx.view.lamp_search, None)
+        {
+            cx.push(Command::Source(
+                id,
+                SourceEdit::Lamp(lamp_from_entry(&entry)),
+            ));
+        }
+    });
+    match source.lamp {
+        LampRef::Blackbody { cct_k } | LampRef::Daylight { cct_k } => {
+            let daylight = matches!(source.lamp, LampRef::Daylight { .. });
+            let range = if daylight {
+                4000.0..=25_000.0
+            } else {
+                1000.0..=20_000.0
+            };
+            let mut k = cct_k;
             ui.horizontal(|ui| {
-                let mut locked = source.locked;
+                ui.label(theme::caption("Temperature"));
                 if ui
-                    .checkbox(&mut locked, "Locked")
-                    .on_hover_text("The advisor will not change this source")
+                    .add(
+                        egui::DragValue::new(&mut k)
+                            .clamp_existing_to_range(false)
+                            .range(range)
+                            .speed(10.0)
+                            .suffix(" K"),
+                    )
                     .changed()
                 {
-                    cx.push(Command::Source(id, SourceEdit::Locked(locked)));
+                    let lamp = if daylight {
+                        LampRef::Daylight { cct_k: k }
+                    } else {
+                        LampRef::Blackbody { cct_k: k }
+                    };
+                    cx.push(Command::Source(id, SourceEdit::Lamp(lamp)));
                 }
-                ui.with_layout(egui::Layout::right_to_left(egui::Align::Center), |ui| {
-                    if ui.button("Remove source").clicked() {
-                        cx.push(Command::RemoveSource(id));
-                    }
-                    if ui.button("Duplicate").clicked() {
-                        cx.push(Command::DuplicateSource(id));
-                    }
-                });
             });
+        }
+        LampRef::Library(_) | LampRef::Custom(_) => {}
+    }
+}
+
+/// The dimmer, for lamps with a filament.
+fn dimmer_row(ui: &mut Ui, cx: &mut PanelCtx<'_>, source: &Source) {
+    let id = source.id;
+    if catalog::lamp_has_filament(&source.lamp) {
+        let mut percent = source.dimmer * 100.0;
+        ui.horizontal(|ui| {
+            ui.label(theme::caption("Dimmer"));
+            let slider = egui::Slider::new(&mut percent, 10.0..=100.0)
+                .clamping(egui::SliderClamping::Edits)
+                .suffix(" %")
+                .fixed_decimals(0)
+                .text("voltage");
+            if ui
+                .add(slider)
+                .on_hover_text("A filament dims warmer: its colour follows the voltage")
+                .changed()
+            {
+                cx.push(Command::Source(id, SourceEdit::Dimmer(percent / 100.0)));
+            }
+        });
+    }
+}
+
+/// Lock, duplicate, remove.
+fn footer_row(ui: &mut Ui, cx: &mut PanelCtx<'_>, source: &Source) {
+    let id = source.id;
+    ui.horizontal(|ui| {
+        let mut locked = source.locked;
+        if ui
+            .checkbox(&mut locked, "Locked")
+            .on_hover_text("The advisor will not change this source")
+            .changed()
+        {
+            cx.push(Command::Source(id, SourceEdit::Locked(locked)));
+        }
+        ui.with_layout(egui::Layout::right_to_left(egui::Align::Center), |ui| {
+            if ui.button("Remove source").clicked() {
+                cx.push(Command::RemoveSource(id));
+            }
+            if ui.button("Duplicate").clicked() {
+                cx.push(Command::DuplicateSource(id));
+            }
         });
     });
 }

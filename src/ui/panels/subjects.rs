@@ -63,6 +63,12 @@ pub fn ui(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
     });
     ui.add_space(6.0);
     ui.separator();
+    subject_list(ui, cx);
+}
+
+/// The plan's subjects: include, name (click to select), group, weight, remove.
+fn subject_list(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
+    let plan = cx.plan;
     if plan.subjects.is_empty() {
         ui.label("No subjects yet. Add a grey card and a skin tone to start.");
         return;

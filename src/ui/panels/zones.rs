@@ -6,7 +6,7 @@ use crate::ui::format;
 use crate::ui::theme;
 use crate::ui::widgets::PanelCtx;
 use egui::Ui;
-use lampwright_plan::{Source, Zone, ZoneEvaluation, ZoneLevel};
+use lampwright_plan::{Source, Zone, ZoneEvaluation, ZoneId, ZoneLevel};
 
 #[derive(Clone, Copy, PartialEq, Eq)]
 enum LevelKind {
@@ -179,13 +179,24 @@ fn reach_row(ui: &mut Ui, cx: &mut PanelCtx<'_>, zone: &Zone, source: &Source) {
         })
         .response
         .accessible_name("Level given as");
-    ui.horizontal(|ui| {
+    ui.horizontal(|ui| level_fields(ui, cx, zone.id, source, &reach.level));
+}
+
+/// The number fields of one reach level.
+fn level_fields(
+    ui: &mut Ui,
+    cx: &mut PanelCtx<'_>,
+    zone: ZoneId,
+    source: &Source,
+    level: &ZoneLevel,
+) {
+    {
         let set = |level: ZoneLevel| Command::Reach {
-            zone: zone.id,
+            zone,
             source: source.id,
             level: Some(level),
         };
-        match reach.level {
+        match *level {
             ZoneLevel::AsSource => {
                 ui.label(theme::caption(format::lux(source.level_lux)));
             }
@@ -248,5 +259,5 @@ fn reach_row(ui: &mut Ui, cx: &mut PanelCtx<'_>, zone: &Zone, source: &Source) {
                 }
             }
         }
-    });
+    }
 }

@@ -88,13 +88,12 @@ pub fn reflectance(ui: &mut egui::Ui, plan: &Plan, eval: &Evaluation, selected: 
                         .style(LineStyle::dashed_loose()),
                 );
             }
-            match reflectance.as_deref().and_then(on_grid) {
-                Some(points) => plot.line(
+            if let Some(points) = reflectance.as_deref().and_then(on_grid) {
+                plot.line(
                     Line::new(name.clone(), points)
                         .color(brighten(color))
                         .width(2.5),
-                ),
-                None => {}
+                );
             }
         });
 }
