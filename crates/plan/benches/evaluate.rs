@@ -6,7 +6,8 @@ use std::hint::black_box;
 use std::path::Path;
 
 fn cafe() -> Plan {
-    let path = Path::new(env!("CARGO_MANIFEST_DIR")).join("../../assets/demo/plans/cafe-interview.ron");
+    let path =
+        Path::new(env!("CARGO_MANIFEST_DIR")).join("../../assets/demo/plans/cafe-interview.ron");
     load_plan(&path).expect("the café demo plan loads")
 }
 
