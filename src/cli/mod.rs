@@ -4,6 +4,7 @@
 //! `run(args) -> anyhow::Result<ExitCode>` function.
 
 pub mod delta_e;
+pub mod advise;
 pub mod camera_fit;
 pub mod check;
 pub mod lamp;
@@ -38,6 +39,8 @@ pub enum Command {
     Check(check::CheckArgs),
     /// Evaluate a plan and write its report as text, JSON, CSV or HTML.
     Report(report::ReportArgs),
+    /// Suggest gels, levels and camera settings for one goal (fidelity, a white, quality).
+    Advise(advise::AdviseArgs),
 }
 
 /// Run the parsed command line.
@@ -50,6 +53,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
         Some(Command::DeltaE(args)) => delta_e::run(&args),
         Some(Command::Check(args)) => check::run(&args),
         Some(Command::Report(args)) => report::run(&args),
+        Some(Command::Advise(args)) => advise::run(&args),
     }
 }
 
