@@ -2,8 +2,8 @@
 # Rebuild the release binary and capture the window in a virtual display, so the
 # screenshots in docs/user-guide.md show the current window.
 #
-# Needs xvfb (xvfb-run) and imagemagick (import):
-#   apt-get install -y xvfb imagemagick
+# Needs xvfb (xvfb-run), imagemagick (import) and, optionally, xdotool:
+#   apt-get install -y xvfb imagemagick xdotool
 # Each state opens a fresh window on the built-in demo plan, with an empty
 # settings folder so remembered preferences do not leak into the pictures.
 # LAMPWRIGHT_VIEW picks the tabs (see ViewState::apply_start_view); the script
@@ -28,6 +28,9 @@ shoot() {
             LAMPWRIGHT_VIEW="$2" LAMPWRIGHT_LOG_FIRST_FRAME=1 LAMPWRIGHT_NO_SYSTEM_DIALOGS=1 \
             "$1" 2>"$4/stderr.txt" &
         pid=$!
+        # Park the pointer in a corner so no tooltip covers the picture.
+        sleep 1
+        xdotool mousemove 1439 899 2>/dev/null || true
         sleep "$5"
         import -window root "$3"
         rss_kib=$(awk "/VmRSS/ {print \$2}" "/proc/$pid/status")

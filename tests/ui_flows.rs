@@ -353,3 +353,69 @@ fn swatch_sheet_exports_as_png() {
         "the first eye colour is on the sheet"
     );
 }
+
+#[test]
+fn new_plan_starts_with_a_key_and_a_grey_card_and_evaluates() {
+    let mut harness = harness();
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::N);
+    harness.run();
+    let app = harness.state();
+    assert_eq!(app.plan().sources.len(), 1);
+    assert!(!app.plan().subjects.is_empty());
+    assert!(app.evaluation_error().is_none(), "{:?}", app.evaluation_error());
+    let eval = app.evaluation().expect("evaluation");
+    // A 3200 K black body reads as 3200 K (to 10 K) on the strip.
+    harness.get_by_label(&format::cct(eval.light.cct_k));
+    assert_eq!(format::cct(eval.light.cct_k), "3200 K");
+    assert_eq!(app.undo_len(), 0, "a new plan starts a new history");
+}
+
+#[test]
+fn report_exports_as_html_through_the_plan_crate() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("report.html");
+    let mut harness = harness();
+    harness.get_by_label("File").click();
+    harness.run();
+    harness.get_by_label("Export").hover();
+    harness.run();
+    harness.get_by_label("Report (HTML)…").click();
+    harness.run();
+    type_into(&mut harness, "Path", &path.display().to_string());
+    harness.get_by_label("Export").click();
+    harness.run();
+    let html = std::fs::read_to_string(&path).expect("report written");
+    let plan_name = harness.state().plan().name.clone();
+    assert!(html.contains("<html") || html.contains("<!DOCTYPE"), "an HTML page");
+    assert!(html.contains(&plan_name), "names the plan");
+}
+
+#[test]
+fn importing_a_good_subject_csv_adds_a_subject_and_undo_removes_it() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("swatch.csv");
+    let mut text = String::from("wavelength_nm,Painted wall\n");
+    for wl in (380..=780).step_by(10) {
+        let r = 0.2 + 0.5 * f64::from(wl - 380) / 400.0;
+        text.push_str(&format!("{wl},{r:.4}\n"));
+    }
+    std::fs::write(&path, text).expect("write");
+    let mut harness = harness();
+    let before = harness.state().plan().clone();
+
+    drop_file(&mut harness, &path);
+    harness.get_by_label("Subject (reflectance)").click();
+    harness.run();
+    harness.get_by_label("Add to plan").click();
+    harness.run();
+
+    let app = harness.state();
+    assert_eq!(app.plan().subjects.len(), before.subjects.len() + 1, "{:?}", app.notices().last());
+    assert_eq!(app.plan().custom.subjects.len(), before.custom.subjects.len() + 1);
+    assert!(app.evaluation_error().is_none(), "{:?}", app.evaluation_error());
+    let eval = app.evaluation().expect("evaluation");
+    assert!(eval.subjects.iter().any(|r| r.name == "swatch"), "named after the file");
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    harness.run();
+    assert_eq!(harness.state().plan(), &before);
+}

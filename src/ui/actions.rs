@@ -185,8 +185,8 @@ impl App {
     pub(super) fn run_action_unchecked(&mut self, ctx: &egui::Context, action: Action) {
         match action {
             Action::New => {
-                self.replace_plan(Plan::default(), None);
-                self.notify("New plan");
+                self.replace_plan(starter_plan(), None);
+                self.notify("New plan: a 3200 K key on an 18 % grey card and a mid skin tone");
             }
             Action::OpenDemo => match upstream::demo_plan() {
                 Ok(plan) => {
@@ -346,6 +346,29 @@ impl App {
             &self.plan.name,
         )));
     }
+}
+
+/// A new plan: one key light (a 3200 K black body, 1000 lx) on a grey card
+/// and a skin tone, so there is something to see from the start.
+#[must_use]
+pub fn starter_plan() -> Plan {
+    let mut plan = Plan {
+        sources: vec![lampwright_plan::Source {
+            id: 1,
+            name: "Key".into(),
+            ..lampwright_plan::Source::default()
+        }],
+        ..Plan::default()
+    };
+    for id in ["grey-card-18", "skin-medium-olive"] {
+        if lampwright_plan::library::subject(id).is_some() {
+            plan.subjects.push(lampwright_plan::SubjectEntry {
+                subject: lampwright_plan::SubjectRef::Library(id.into()),
+                ..lampwright_plan::SubjectEntry::default()
+            });
+        }
+    }
+    plan
 }
 
 /// Add an extension when the name has none.

@@ -393,16 +393,16 @@ impl App {
             );
         });
         if self.prefs.show_plots {
-            egui::Panel::bottom("plots")
+            egui::Panel::right("plots")
                 .resizable(true)
-                .default_size(300.0)
-                .size_range(160.0..=640.0)
+                .default_size(420.0)
+                .size_range(300.0..=900.0)
                 .show(ui, |ui| plots::ui(ui, &mut cx));
         }
         if self.prefs.show_editor {
             egui::Panel::left("editor")
                 .resizable(true)
-                .default_size(430.0)
+                .default_size(400.0)
                 .size_range(340.0..=720.0)
                 .show(ui, |ui| panels::ui(ui, &mut cx));
         }

@@ -79,7 +79,9 @@ fn summary_line(ui: &mut Ui, eval: &Evaluation) {
 
 fn legend(ui: &mut Ui) {
     ui.horizontal_wrapped(|ui| {
-        ui.label(theme::caption("ΔE00 badges:"));
+        ui.label(theme::caption(
+            "Each pair: eye left, camera right · ΔE00 badges:",
+        ));
         for band in DeltaEBand::ALL {
             widgets::badge(ui, band.word(), band.color()).on_hover_text(band.meaning());
         }
@@ -192,17 +194,20 @@ fn swatches(ui: &mut Ui, cx: &mut PanelCtx<'_>, prefs: &mut Prefs) {
             if shown.is_empty() {
                 ui.label("No subject passes the filters.");
             }
-            // Cards sized so four or more fit a row on a 1440-point window.
+            // Rows of equal cards, as many columns as fit at 200 points or
+            // more (frames do not wrap on their own in a wrapping layout).
             let gap = 10.0;
-            let available = ui.available_width();
-            let columns = ((available + gap) / (236.0 + gap)).floor().max(1.0);
+            let available = ui.available_width() - 4.0;
+            let columns = ((available + gap) / (200.0 + gap)).floor().max(1.0);
             let card_w = ((available + gap) / columns - gap).floor();
-            ui.horizontal_wrapped(|ui| {
-                ui.spacing_mut().item_spacing = Vec2::splat(gap);
-                for r in &shown {
-                    swatch_card(ui, cx, r, card_w);
-                }
-            });
+            ui.spacing_mut().item_spacing = Vec2::splat(gap);
+            for row in shown.chunks(columns as usize) {
+                ui.horizontal_top(|ui| {
+                    for r in row {
+                        swatch_card(ui, cx, r, card_w);
+                    }
+                });
+            }
             if !eval.metamers.is_empty() {
                 ui.add_space(12.0);
                 ui.label(RichText::new("Camera metamers").strong());
@@ -236,49 +241,52 @@ fn swatch_card(ui: &mut Ui, cx: &mut PanelCtx<'_>, r: &SubjectResult, card_w: f3
         frame = frame.stroke(egui::Stroke::new(2.0, theme::ACCENT));
     }
     let inner = frame.show(ui, |ui| {
-        let width = card_w - 12.0;
-        ui.set_width(width);
-        ui.spacing_mut().item_spacing = Vec2::new(2.0, 3.0);
-        let swatch_w = (width - 2.0) / 2.0;
-        ui.horizontal(|ui| {
-            let (eye, _) =
-                ui.allocate_exact_size(Vec2::new(swatch_w, SWATCH_HEIGHT), Sense::hover());
-            let (cam, _) =
-                ui.allocate_exact_size(Vec2::new(swatch_w, SWATCH_HEIGHT), Sense::hover());
-            widgets::paint_swatch(ui, eye, r.eye_rgb8, r.eye_in_gamut);
-            widgets::paint_swatch(ui, cam, r.camera_rgb8, r.camera_in_gamut);
-        });
-        let dark = egui::Color32::from_gray(18);
-        ui.horizontal(|ui| {
-            ui.label(RichText::new(&r.name).color(dark).strong());
-            if !r.included {
+        ui.vertical(|ui| {
+            // Card width less the frame's margins (6 each side) and stroke.
+            let width = card_w - 16.0;
+            ui.set_width(width);
+            ui.spacing_mut().item_spacing = Vec2::new(2.0, 3.0);
+            let swatch_w = (width - 2.0) / 2.0;
+            ui.horizontal(|ui| {
+                let (eye, _) =
+                    ui.allocate_exact_size(Vec2::new(swatch_w, SWATCH_HEIGHT), Sense::hover());
+                let (cam, _) =
+                    ui.allocate_exact_size(Vec2::new(swatch_w, SWATCH_HEIGHT), Sense::hover());
+                widgets::paint_swatch(ui, eye, r.eye_rgb8, r.eye_in_gamut);
+                widgets::paint_swatch(ui, cam, r.camera_rgb8, r.camera_in_gamut);
+            });
+            let dark = egui::Color32::from_gray(18);
+            ui.horizontal(|ui| {
+                ui.add(egui::Label::new(RichText::new(&r.name).color(dark).strong()).truncate());
+                if !r.included {
+                    ui.label(
+                        RichText::new("(excluded)")
+                            .color(egui::Color32::from_gray(40))
+                            .small(),
+                    );
+                }
+            });
+            ui.horizontal(|ui| {
+                let band = DeltaEBand::of(r.de2000);
                 ui.label(
-                    RichText::new("(excluded)")
-                        .color(egui::Color32::from_gray(40))
-                        .small(),
+                    RichText::new(format!("ΔE00 {}", format::delta_e(r.de2000)))
+                        .color(dark)
+                        .size(15.0),
                 );
-            }
-        });
-        ui.horizontal(|ui| {
-            let band = DeltaEBand::of(r.de2000);
-            ui.label(
-                RichText::new(format!("ΔE00 {}", format::delta_e(r.de2000)))
-                    .color(dark)
-                    .size(15.0),
-            );
-            widgets::badge(ui, band.word(), band.color()).on_hover_text(band.meaning());
-            if !r.eye_in_gamut || !r.camera_in_gamut {
-                let which = match (r.eye_in_gamut, r.camera_in_gamut) {
-                    (false, false) => "both out of gamut",
-                    (false, true) => "eye out of gamut",
-                    _ => "camera out of gamut",
-                };
-                ui.label(
-                    RichText::new(which)
-                        .color(egui::Color32::from_gray(30))
-                        .small(),
-                );
-            }
+                widgets::badge(ui, band.word(), band.color()).on_hover_text(band.meaning());
+                if !r.eye_in_gamut || !r.camera_in_gamut {
+                    let which = match (r.eye_in_gamut, r.camera_in_gamut) {
+                        (false, false) => "both out of gamut",
+                        (false, true) => "eye out of gamut",
+                        _ => "camera out of gamut",
+                    };
+                    ui.label(
+                        RichText::new(which)
+                            .color(egui::Color32::from_gray(30))
+                            .small(),
+                    );
+                }
+            });
         });
     });
     let response = inner.response.interact(Sense::click());
@@ -332,13 +340,16 @@ fn across_zones(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
     if eval.zones.len() <= 1 {
         ui.label(theme::caption("The plan has one zone. Add zones (key side, shadow side, background) in the editor to compare."));
     }
+    // Zone columns share the width (a horizontal scroll past five zones).
+    let n = eval.zones.len().max(1) as f32;
+    let width = ((ui.available_width() + 10.0) / n - 10.0 - 16.0).clamp(120.0, 240.0);
     egui::ScrollArea::horizontal()
         .id_salt("zones-scroll")
         .show(ui, |ui| {
             ui.horizontal_top(|ui| {
                 for zone in &eval.zones {
                     let result = zone.subjects.iter().find(|r| r.index == current.index);
-                    zone_card(ui, zone, result);
+                    zone_card(ui, zone, result, width);
                 }
             });
         });
@@ -346,54 +357,61 @@ fn across_zones(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
 
 /// One zone's column: its level and light, the subject as the eye sees it
 /// (top) and as the camera renders it (bottom).
-fn zone_card(ui: &mut Ui, zone: &lampwright_plan::ZoneEvaluation, result: Option<&SubjectResult>) {
+fn zone_card(
+    ui: &mut Ui,
+    zone: &lampwright_plan::ZoneEvaluation,
+    result: Option<&SubjectResult>,
+    width: f32,
+) {
     let dark = egui::Color32::from_gray(18);
     let soft = egui::Color32::from_gray(35);
     theme::card()
         .fill(theme::grey::SWATCH_SURROUND)
         .inner_margin(8)
         .show(ui, |ui| {
-            ui.set_width(180.0);
-            ui.label(RichText::new(&zone.name).strong().color(dark).size(15.0));
-            ui.label(
-                RichText::new(format!(
-                    "{} · {} · {}",
-                    format::lux(zone.light.illuminance_lux),
-                    format::stops(zone.stops_from_main),
-                    format::cct(zone.light.cct_k)
-                ))
-                .color(soft)
-                .small(),
-            );
-            let Some(r) = result else {
-                ui.label(RichText::new("not in this zone").color(dark));
-                return;
-            };
-            ui.spacing_mut().item_spacing.y = 2.0;
-            for (rgb8, in_gamut) in [
-                (r.eye_rgb8, r.eye_in_gamut),
-                (r.camera_rgb8, r.camera_in_gamut),
-            ] {
-                let (rect, _) =
-                    ui.allocate_exact_size(Vec2::new(180.0, SWATCH_HEIGHT), Sense::hover());
-                widgets::paint_swatch(ui, rect, rgb8, in_gamut);
-            }
-            ui.horizontal(|ui| {
-                let band = DeltaEBand::of(r.de2000);
+            ui.vertical(|ui| {
+                ui.set_width(width);
+                ui.label(RichText::new(&zone.name).strong().color(dark).size(15.0));
                 ui.label(
-                    RichText::new(format!("ΔE00 {}", format::delta_e(r.de2000)))
-                        .color(dark)
-                        .size(15.0),
+                    RichText::new(format!(
+                        "{} · {} · {}",
+                        format::lux(zone.light.illuminance_lux),
+                        format::stops(zone.stops_from_main),
+                        format::cct(zone.light.cct_k)
+                    ))
+                    .color(soft)
+                    .small(),
                 );
-                widgets::badge(ui, band.word(), band.color());
+                let Some(r) = result else {
+                    ui.label(RichText::new("not in this zone").color(dark));
+                    return;
+                };
+                ui.spacing_mut().item_spacing.y = 2.0;
+                for (rgb8, in_gamut) in [
+                    (r.eye_rgb8, r.eye_in_gamut),
+                    (r.camera_rgb8, r.camera_in_gamut),
+                ] {
+                    let (rect, _) =
+                        ui.allocate_exact_size(Vec2::new(width, SWATCH_HEIGHT), Sense::hover());
+                    widgets::paint_swatch(ui, rect, rgb8, in_gamut);
+                }
+                ui.horizontal(|ui| {
+                    let band = DeltaEBand::of(r.de2000);
+                    ui.label(
+                        RichText::new(format!("ΔE00 {}", format::delta_e(r.de2000)))
+                            .color(dark)
+                            .size(15.0),
+                    );
+                    widgets::badge(ui, band.word(), band.color());
+                });
+                if let Some(m) = zone.mired_from_white_balance {
+                    ui.label(
+                        RichText::new(format!("{} mired from white balance", format::signed(m, 0)))
+                            .color(soft)
+                            .small(),
+                    );
+                }
             });
-            if let Some(m) = zone.mired_from_white_balance {
-                ui.label(
-                    RichText::new(format!("{} mired from white balance", format::signed(m, 0)))
-                        .color(soft)
-                        .small(),
-                );
-            }
         });
 }
 

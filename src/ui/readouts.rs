@@ -7,21 +7,26 @@ use super::widgets::{self, PanelCtx};
 use egui::Ui;
 use lampwright_plan::{Evaluation, Plan, SourceRole};
 
-/// Key-to-fill ratio in stops: how far the key sits above the brightest lit fill
-/// (from the evaluation's levels after gels).
+/// Key-to-fill ratio in stops: how far the key sits above the brightest lit
+/// fill (from the evaluation's levels after gels). When the plan names no
+/// fill, the brightest lit ambient source stands in, as it fills the shadows.
 #[must_use]
 pub fn key_fill_stops(plan: &Plan, eval: &Evaluation) -> Option<f64> {
-    plan.sources
-        .iter()
-        .filter(|s| s.role == SourceRole::Fill && plan.is_lit(s))
-        .filter_map(|s| {
-            eval.sources
-                .iter()
-                .find(|f| f.source_id == s.id)?
-                .stops_from_key
-        })
-        .filter(|s| s.is_finite())
-        .reduce(f64::max)
+    let brightest = |role: SourceRole| {
+        plan.sources
+            .iter()
+            .filter(|s| s.role == role && plan.is_lit(s))
+            .filter_map(|s| {
+                eval.sources
+                    .iter()
+                    .find(|f| f.source_id == s.id)?
+                    .stops_from_key
+            })
+            .filter(|s| s.is_finite())
+            .reduce(f64::max)
+    };
+    brightest(SourceRole::Fill)
+        .or_else(|| brightest(SourceRole::Ambient))
         .map(|s| -s)
 }
 
@@ -52,7 +57,7 @@ pub fn ui(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
         let ev = light.ev100.map_or_else(|| format::DASH.to_owned(), |ev| format!("{ev:.1} EV"));
         widgets::readout(ui, "EV at ISO 100", &ev, "Incident exposure value (ISO 2720 meter constant)");
         let kf = key_fill_stops(cx.plan, eval).map_or_else(|| format::DASH.to_owned(), |s| format!("{s:.1} stops"));
-        widgets::readout(ui, "Key : fill", &kf, "How many stops the key is above the brightest fill");
+        widgets::readout(ui, "Key : fill", &kf, "How many stops the key is above the brightest fill (or, with no fill, the ambient light)");
         let r9 = light.cri_r.map(|r| r[8]);
         widgets::readout(
             ui,
@@ -88,7 +93,19 @@ pub fn ui(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
             }
         });
     }
-    for warning in eval.warnings.iter().take(3) {
-        ui.colored_label(theme::WARNING, warning);
+    if let Some(first) = eval.warnings.first() {
+        // One line, so the swatches keep the room; hover for every note.
+        let more = eval.warnings.len() - 1;
+        let text = if more > 0 {
+            format!("{first}   (+{more} more: hover)")
+        } else {
+            first.clone()
+        };
+        ui.add(egui::Label::new(egui::RichText::new(text).color(theme::WARNING)).truncate())
+            .on_hover_ui(|ui| {
+                for warning in &eval.warnings {
+                    ui.label(warning);
+                }
+            });
     }
 }

@@ -177,7 +177,7 @@ fn header_row(ui: &mut Ui, cx: &mut PanelCtx<'_>, index: usize, source: &Source)
         let field = ui
             .add(
                 egui::TextEdit::singleline(&mut name)
-                    .desired_width(130.0)
+                    .desired_width(132.0)
                     .font(egui::TextStyle::Heading),
             )
             .accessible_name("Source name");
@@ -428,8 +428,17 @@ fn gel_stack(ui: &mut Ui, cx: &mut PanelCtx<'_>, source: &Source) {
     for (i, layer) in source.gels.iter().enumerate() {
         ui.push_id(("gel", i), |ui| {
             ui.horizontal(|ui| {
-                ui.add_space(12.0);
-                ui.label(catalog::gel_name(plan, &layer.gel));
+                ui.add_space(8.0);
+                let name = catalog::gel_name(plan, &layer.gel);
+                ui.allocate_ui_with_layout(
+                    egui::vec2(150.0, 18.0),
+                    egui::Layout::left_to_right(egui::Align::Center),
+                    |ui| {
+                        ui.set_width(150.0);
+                        ui.add(egui::Label::new(name.clone()).truncate())
+                            .on_hover_text(name);
+                    },
+                );
                 egui::ComboBox::from_id_salt("strength")
                     .selected_text(strength_label(layer.strength))
                     .width(56.0)
@@ -472,7 +481,11 @@ fn gel_stack(ui: &mut Ui, cx: &mut PanelCtx<'_>, source: &Source) {
                 {
                     cx.push(Command::Source(id, SourceEdit::MoveGel(i, false)));
                 }
-                if ui.small_button("Remove gel").clicked() {
+                if ui
+                    .small_button("Remove")
+                    .on_hover_text("Take this gel off")
+                    .clicked()
+                {
                     cx.push(Command::Source(id, SourceEdit::RemoveGel(i)));
                 }
             });

@@ -4,7 +4,7 @@
 use crate::ui::widgets::source_color;
 use crate::ui::{format, theme};
 use egui::Color32;
-use egui_plot::{Legend, Line, LineStyle, MarkerShape, Plot, PlotPoint, Points, Text};
+use egui_plot::{Line, LineStyle, MarkerShape, Plot, PlotPoint, Points, Text};
 use lampwright_color::cct::{isotemperature_line_uv, planckian_uv, uv_from_cct_duv};
 use lampwright_plan::Evaluation;
 
@@ -36,8 +36,52 @@ pub fn ui(ui: &mut egui::Ui, eval: &Evaluation) {
     ui.label(theme::caption(
         "CIE 1960 uv: Planckian locus (solid), ±0.01 Duv (dotted), isotemperature lines; above the locus reads green, below magenta",
     ));
+    let width = ui.available_width();
+    let height = (width / 1.5).min(ui.available_height() * 0.62).max(120.0);
+    plot(ui, eval, width, height);
+    table(ui, eval);
+}
+
+/// The points of the diagram as numbers.
+fn table(ui: &mut egui::Ui, eval: &Evaluation) {
+    egui::ScrollArea::vertical()
+        .id_salt("uv-table")
+        .show(ui, |ui| {
+            egui::Grid::new("uv-grid")
+                .num_columns(3)
+                .striped(true)
+                .spacing([14.0, 2.0])
+                .show(ui, |ui| {
+                    ui.label(theme::caption("Light"));
+                    ui.label(theme::caption("CCT"));
+                    ui.label(theme::caption("Duv"));
+                    ui.end_row();
+                    ui.label(egui::RichText::new("Mix at the subject").color(theme::ACCENT));
+                    ui.label(format::cct(eval.light.cct_k));
+                    ui.label(format::duv(eval.light.duv));
+                    ui.end_row();
+                    for (i, s) in eval.sources.iter().enumerate().filter(|(_, s)| s.lit) {
+                        ui.label(egui::RichText::new(&s.name).color(source_color(i)));
+                        ui.label(format::cct(s.cct_k));
+                        ui.label(format::duv(s.duv));
+                        ui.end_row();
+                    }
+                    if eval.zones.len() > 1 {
+                        for z in &eval.zones {
+                            ui.label(format!("Zone: {}", z.name));
+                            ui.label(format::cct(z.light.cct_k));
+                            ui.label(format::duv(z.light.duv));
+                            ui.end_row();
+                        }
+                    }
+                });
+        });
+}
+
+fn plot(ui: &mut egui::Ui, eval: &Evaluation, width: f32, height: f32) {
     Plot::new("uv-plot")
-        .legend(Legend::default())
+        .width(width)
+        .height(height)
         .data_aspect(1.0)
         .x_axis_label("u (CIE 1960)")
         .y_axis_label("v (CIE 1960)")

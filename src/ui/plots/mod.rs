@@ -16,7 +16,7 @@ use lampwright_color::{GRID_LEN, spectrum::grid_wavelength_nm};
 /// Draw the plot panel.
 pub fn ui(ui: &mut egui::Ui, cx: &mut PanelCtx<'_>) {
     ui.add_space(4.0);
-    ui.horizontal(|ui| {
+    ui.horizontal_wrapped(|ui| {
         for tab in PlotTab::ALL {
             ui.selectable_value(&mut cx.view.plot_tab, tab, tab.title());
         }

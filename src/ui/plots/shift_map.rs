@@ -1,9 +1,9 @@
 //! The shift map: every subject in the CIELAB a*b* plane, with an arrow from
 //! where the eye sees it to where the camera puts it.
 
-use crate::ui::theme;
+use crate::ui::{format, theme};
 use egui::Color32;
-use egui_plot::{Arrows, Legend, Plot, PlotPoint, Points, Text};
+use egui_plot::{Arrows, Plot, PlotPoint, Points, Text};
 use lampwright_plan::Evaluation;
 
 /// Draw the map.
@@ -11,9 +11,19 @@ pub fn ui(ui: &mut egui::Ui, eval: &Evaluation, selected: Option<usize>) {
     ui.label(theme::caption(
         "CIELAB a*b* (D65): dot = eye, arrow tip = camera; long arrows are large hue or chroma errors",
     ));
+    let side = ui
+        .available_width()
+        .min(ui.available_height() * 0.6)
+        .max(120.0);
+    ui.vertical_centered(|ui| plot(ui, eval, selected, side));
+    table(ui, eval, selected);
+}
+
+fn plot(ui: &mut egui::Ui, eval: &Evaluation, selected: Option<usize>, side: f32) {
     Plot::new("shift-map")
+        .width(side)
+        .height(side)
         .data_aspect(1.0)
-        .legend(Legend::default())
         .x_axis_label("a*  (green − / red +)")
         .y_axis_label("b*  (blue − / yellow +)")
         .include_x(-40.0)
@@ -55,4 +65,42 @@ pub fn ui(ui: &mut egui::Ui, eval: &Evaluation, selected: Option<usize>) {
                 }
             }
         });
+}
+
+/// The subjects, largest difference first, with their CIELAB values.
+fn table(ui: &mut egui::Ui, eval: &Evaluation, selected: Option<usize>) {
+    let mut rows: Vec<_> = eval.subjects.iter().collect();
+    rows.sort_by(|a, b| b.de2000.total_cmp(&a.de2000));
+    egui::ScrollArea::vertical()
+        .id_salt("shift-table")
+        .show(ui, |ui| {
+            egui::Grid::new("shift-grid")
+                .num_columns(4)
+                .striped(true)
+                .spacing([14.0, 2.0])
+                .show(ui, |ui| {
+                    ui.label(theme::caption("Subject"));
+                    ui.label(theme::caption("eye L* a* b*"));
+                    ui.label(theme::caption("camera L* a* b*"));
+                    ui.label(theme::caption("ΔE00"));
+                    ui.end_row();
+                    for r in rows {
+                        let name = egui::RichText::new(&r.name);
+                        let name = if selected == Some(r.index) {
+                            name.color(theme::ACCENT)
+                        } else {
+                            name
+                        };
+                        ui.label(name);
+                        ui.monospace(lab(r.eye_lab));
+                        ui.monospace(lab(r.camera_lab));
+                        ui.monospace(format::delta_e(r.de2000));
+                        ui.end_row();
+                    }
+                });
+        });
+}
+
+fn lab(v: [f64; 3]) -> String {
+    format!("{:5.1} {:6.1} {:6.1}", v[0], v[1], v[2])
 }

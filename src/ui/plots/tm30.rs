@@ -3,7 +3,7 @@
 
 use crate::ui::{format, theme};
 use egui::Color32;
-use egui_plot::{Arrows, Bar, BarChart, Legend, Line, Plot, PlotPoint, Points, Text};
+use egui_plot::{Arrows, Bar, BarChart, Line, Plot, PlotPoint, Points, Text};
 use lampwright_plan::{Evaluation, TM30_BINS};
 use std::f64::consts::TAU;
 
@@ -28,18 +28,21 @@ pub fn ui(ui: &mut egui::Ui, eval: &Evaluation) {
         return;
     };
     ui.label(theme::caption(format!(
-        "TM-30 Rf {} · Rg {} — left: each hue bin's average moves from the reference circle (grey) to the test light (arrows); \
-         right: chroma shift per bin, %",
+        "TM-30 Rf {} · Rg {} — top: each hue bin's average moves from the reference circle (grey) to the test light (arrows); \
+         bottom: chroma shift per bin, %",
         format::integer(light.tm30_rf),
         format::integer(light.tm30_rg)
     )));
-    ui.columns(2, |cols| {
-        vector_graphic(&mut cols[0], bins);
-        chroma_bars(&mut cols[1], bins);
-    });
+    let side = ui
+        .available_width()
+        .min(ui.available_height() * 0.58)
+        .max(120.0);
+    ui.vertical_centered(|ui| vector_graphic(ui, bins, side));
+    let rest = ui.available_height().max(100.0);
+    chroma_bars(ui, bins, rest);
 }
 
-fn vector_graphic(ui: &mut egui::Ui, bins: &lampwright_plan::Tm30Bins) {
+fn vector_graphic(ui: &mut egui::Ui, bins: &lampwright_plan::Tm30Bins, side: f32) {
     let circle: Vec<[f64; 2]> = (0..=120)
         .map(|i| {
             let a = TAU * f64::from(i) / 120.0;
@@ -70,8 +73,9 @@ fn vector_graphic(ui: &mut egui::Ui, bins: &lampwright_plan::Tm30Bins) {
         test_polygon.push(first);
     }
     Plot::new("tm30-cvg")
+        .width(side)
+        .height(side)
         .data_aspect(1.0)
-        .legend(Legend::default())
         .show_axes(false)
         .show_grid(false)
         .default_x_bounds(-1.5, 1.5)
@@ -116,7 +120,7 @@ fn vector_graphic(ui: &mut egui::Ui, bins: &lampwright_plan::Tm30Bins) {
         });
 }
 
-fn chroma_bars(ui: &mut egui::Ui, bins: &lampwright_plan::Tm30Bins) {
+fn chroma_bars(ui: &mut egui::Ui, bins: &lampwright_plan::Tm30Bins, height: f32) {
     let bars: Vec<Bar> = bins
         .rcs_hj
         .iter()
@@ -130,10 +134,12 @@ fn chroma_bars(ui: &mut egui::Ui, bins: &lampwright_plan::Tm30Bins) {
         })
         .collect();
     Plot::new("tm30-rcs")
+        .height(height)
         .x_axis_label("hue bin")
         .y_axis_label("chroma shift Rcs,h, %")
         .include_y(-20.0)
         .include_y(20.0)
+        .y_axis_formatter(|mark, _| format!("{:+.0}", mark.value))
         .include_x(0.5)
         .include_x(16.5)
         .allow_scroll(false)
