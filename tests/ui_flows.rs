@@ -7,6 +7,7 @@ use egui::{Key, Modifiers};
 use egui_kittest::Harness;
 use egui_kittest::kittest::Queryable;
 use lampwright::ui::{App, StartOptions, catalog, format};
+use std::fmt::Write as _;
 use std::path::{Path, PathBuf};
 use std::sync::Arc;
 use std::time::Instant;
@@ -362,7 +363,11 @@ fn new_plan_starts_with_a_key_and_a_grey_card_and_evaluates() {
     let app = harness.state();
     assert_eq!(app.plan().sources.len(), 1);
     assert!(!app.plan().subjects.is_empty());
-    assert!(app.evaluation_error().is_none(), "{:?}", app.evaluation_error());
+    assert!(
+        app.evaluation_error().is_none(),
+        "{:?}",
+        app.evaluation_error()
+    );
     let eval = app.evaluation().expect("evaluation");
     // A 3200 K black body reads as 3200 K (to 10 K) on the strip.
     harness.get_by_label(&format::cct(eval.light.cct_k));
@@ -386,7 +391,10 @@ fn report_exports_as_html_through_the_plan_crate() {
     harness.run();
     let html = std::fs::read_to_string(&path).expect("report written");
     let plan_name = harness.state().plan().name.clone();
-    assert!(html.contains("<html") || html.contains("<!DOCTYPE"), "an HTML page");
+    assert!(
+        html.contains("<html") || html.contains("<!DOCTYPE"),
+        "an HTML page"
+    );
     assert!(html.contains(&plan_name), "names the plan");
 }
 
@@ -397,7 +405,7 @@ fn importing_a_good_subject_csv_adds_a_subject_and_undo_removes_it() {
     let mut text = String::from("wavelength_nm,Painted wall\n");
     for wl in (380..=780).step_by(10) {
         let r = 0.2 + 0.5 * f64::from(wl - 380) / 400.0;
-        text.push_str(&format!("{wl},{r:.4}\n"));
+        writeln!(text, "{wl},{r:.4}").expect("write to a string");
     }
     std::fs::write(&path, text).expect("write");
     let mut harness = harness();
@@ -410,12 +418,89 @@ fn importing_a_good_subject_csv_adds_a_subject_and_undo_removes_it() {
     harness.run();
 
     let app = harness.state();
-    assert_eq!(app.plan().subjects.len(), before.subjects.len() + 1, "{:?}", app.notices().last());
-    assert_eq!(app.plan().custom.subjects.len(), before.custom.subjects.len() + 1);
-    assert!(app.evaluation_error().is_none(), "{:?}", app.evaluation_error());
+    assert_eq!(
+        app.plan().subjects.len(),
+        before.subjects.len() + 1,
+        "{:?}",
+        app.notices().last()
+    );
+    assert_eq!(
+        app.plan().custom.subjects.len(),
+        before.custom.subjects.len() + 1
+    );
+    assert!(
+        app.evaluation_error().is_none(),
+        "{:?}",
+        app.evaluation_error()
+    );
     let eval = app.evaluation().expect("evaluation");
-    assert!(eval.subjects.iter().any(|r| r.name == "swatch"), "named after the file");
+    assert!(
+        eval.subjects.iter().any(|r| r.name == "swatch"),
+        "named after the file"
+    );
     harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
     harness.run();
     assert_eq!(harness.state().plan(), &before);
+}
+
+#[test]
+fn the_advisor_runs_in_the_background_and_a_suggestion_applies_as_one_undo_step() {
+    let mut harness = harness();
+    let original = harness.state().plan().clone();
+    let original_rf = harness.state().evaluation().and_then(|e| e.light.tm30_rf);
+    harness.get_by_label("Advisor").click();
+    harness.run();
+    // The café demo is already close for camera fidelity; rendering quality has room.
+    harness
+        .get_by_role_and_label(Role::ComboBox, "Goal")
+        .click();
+    harness.run();
+    harness.get_by_label("Rendering quality (TM-30)").click();
+    harness.run();
+    harness.get_by_label("Suggest changes").click();
+    let started = Instant::now();
+    while harness.query_by_label("Apply 1").is_none()
+        && harness.query_by_label_contains("Nothing better").is_none()
+        && harness.query_by_label_contains("could not run").is_none()
+    {
+        assert!(started.elapsed().as_secs() < 600, "the advisor answers");
+        std::thread::sleep(std::time::Duration::from_millis(50));
+        harness.step();
+    }
+    harness.run();
+    assert!(
+        harness.query_by_label_contains("could not run").is_none(),
+        "{:?}",
+        harness.state().notices()
+    );
+    assert!(
+        harness.query_by_label("Apply 1").is_some(),
+        "the demo plan's rendering quality has room for improvement: {:?}",
+        harness.state().notices()
+    );
+    {
+        harness.get_by_label("Apply 1").click();
+        harness.run();
+        assert_ne!(
+            harness.state().plan(),
+            &original,
+            "the suggestion changed the plan"
+        );
+        let rf_before = original_rf;
+        let rf_after = harness.state().evaluation().and_then(|e| e.light.tm30_rf);
+        assert!(
+            rf_after > rf_before,
+            "Rf rises: {rf_before:?} -> {rf_after:?}"
+        );
+        assert_eq!(
+            harness.state().undo_len(),
+            1,
+            "one suggestion, one undo step"
+        );
+        // The answer now belongs to an earlier plan: it can no longer be applied.
+        harness.get_by_label_contains("earlier version of the plan");
+        harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+        harness.run();
+        assert_eq!(harness.state().plan(), &original);
+    }
 }

@@ -47,6 +47,8 @@ pub enum Action {
     ExportReport(ReportFormat),
     /// Write a report here.
     ExportReportTo(PathBuf, ReportFormat),
+    /// Ask the advisor for suggestions (runs in the background).
+    Advise,
     /// Undo.
     Undo,
     /// Redo.
@@ -224,6 +226,7 @@ impl App {
             Action::ExportSheetTo(path) => self.export_sheet(&path),
             Action::ExportReport(format) => self.choose(Purpose::ExportReport(format)),
             Action::ExportReportTo(path, format) => self.export_report(&path, format),
+            Action::Advise => self.advisor.start(&self.plan),
             Action::Undo => self.undo(),
             Action::Redo => self.redo(),
             Action::Quit | Action::ForceQuit => {

@@ -79,6 +79,7 @@ pub struct App {
     pub(super) actions: Vec<Action>,
     pub(super) notices: Vec<Notice>,
     pub(super) dialog: Option<Dialog>,
+    pub(super) advisor: super::advisor::AdvisorState,
     pub(super) allow_close: bool,
     pub(super) system_dialogs: bool,
     started: Instant,
@@ -109,6 +110,14 @@ impl App {
         app.log_first_frame = options.log_first_frame;
         if let Some(spec) = options.start_view {
             app.view.apply_start_view(&spec);
+            // "advise=quality" (or fidelity, worst, white) starts the advisor at once.
+            let goal = spec
+                .split(',')
+                .find_map(|part| part.trim().strip_prefix("advise="));
+            if let Some(goal) = goal.and_then(super::advisor::GoalKind::from_name) {
+                app.advisor.goal = goal;
+                app.advisor.start(&app.plan);
+            }
         }
         if let Some(path) = options.plan_path {
             app.open_path(&path);
@@ -132,6 +141,7 @@ impl App {
             actions: Vec::new(),
             notices: Vec::new(),
             dialog: None,
+            advisor: super::advisor::AdvisorState::default(),
             allow_close: false,
             system_dialogs: false,
             started,
@@ -364,6 +374,7 @@ impl App {
             out: &mut self.pending,
             actions: &mut self.actions,
             text_focus: &mut text_focus,
+            advisor: &mut self.advisor,
         };
 
         egui::Panel::top("menu").show(ui, |ui| {
@@ -419,6 +430,12 @@ impl App {
     fn frame(&mut self, ui: &mut egui::Ui) {
         let ctx = ui.ctx().clone();
         self.shortcuts(&ctx);
+        if self.advisor.poll() {
+            self.notify("The advisor has answered (see the Advisor tab)");
+        }
+        if self.advisor.running_for_s().is_some() {
+            ctx.request_repaint_after(std::time::Duration::from_millis(150));
+        }
         self.dropped_files(&ctx);
         self.close_request(&ctx);
         self.draw(ui);

@@ -6,9 +6,9 @@
 //! slider drags merge into one undo step (see [`Command::coalesce_key`]).
 
 use lampwright_plan::{
-    Adaptation, CameraRef, Display, FitMethod, GelLayer, GelRef, LampRef, MatrixMode, Plan, Source,
-    SourceId, SourceRole, SubjectEntry, SubjectRef, WhiteBalanceSetting, Zone, ZoneId, ZoneLevel,
-    ZoneReach,
+    Adaptation, CameraRef, Display, FitMethod, GelLayer, GelRef, Kit, LampRef, MatrixMode, Plan,
+    Source, SourceId, SourceRole, SubjectEntry, SubjectRef, WhiteBalanceSetting, Zone, ZoneId,
+    ZoneLevel, ZoneReach,
 };
 
 /// Most sources a plan edited in the window may hold (the plan crate checks its own limits on load).
@@ -101,6 +101,8 @@ pub enum Command {
         /// Level, or `None` when the source does not reach the zone.
         level: Option<ZoneLevel>,
     },
+    /// Set what the advisor may use.
+    Kit(Kit),
     /// Replace the whole plan by an edited copy (imports go through the plan
     /// crate's own functions on a copy, then land here so undo covers them).
     ReplacePlan(Box<Plan>),
@@ -347,6 +349,15 @@ pub fn apply(plan: &mut Plan, command: Command) -> Result<(), CommandError> {
             source,
             level,
         } => set_reach(plan, zone, source, level)?,
+        Command::Kit(kit) => {
+            finite_non_negative(kit.max_stops_lost, "light lost")?;
+            if kit.max_stack == 0 || usize::from(kit.max_stack) > MAX_GELS {
+                return Err(CommandError(format!(
+                    "gels per source must be 1 to {MAX_GELS}"
+                )));
+            }
+            plan.kit = kit;
+        }
         Command::ReplacePlan(new_plan) => *plan = *new_plan,
     }
     Ok(())

@@ -7,6 +7,7 @@
 //! window never computes colour itself.
 
 mod actions;
+pub mod advisor;
 pub mod app;
 pub mod catalog;
 pub mod command;

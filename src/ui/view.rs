@@ -13,15 +13,18 @@ pub enum EditorTab {
     Camera,
     /// Zones of the scene.
     Zones,
+    /// Suggestions for a goal.
+    Advisor,
 }
 
 impl EditorTab {
     /// All tabs in order.
-    pub const ALL: [EditorTab; 4] = [
+    pub const ALL: [EditorTab; 5] = [
         EditorTab::Lights,
         EditorTab::Subjects,
         EditorTab::Camera,
         EditorTab::Zones,
+        EditorTab::Advisor,
     ];
 
     /// Tab title.
@@ -32,6 +35,7 @@ impl EditorTab {
             EditorTab::Subjects => "Subjects",
             EditorTab::Camera => "Camera & viewing",
             EditorTab::Zones => "Zones",
+            EditorTab::Advisor => "Advisor",
         }
     }
 }

@@ -27,6 +27,8 @@ pub struct PanelCtx<'a> {
     pub actions: &'a mut Vec<Action>,
     /// Set when a text field has keyboard focus (typing merges into one undo step).
     pub text_focus: &'a mut bool,
+    /// The advisor's goal and latest answer.
+    pub advisor: &'a mut super::advisor::AdvisorState,
 }
 
 impl PanelCtx<'_> {

@@ -1,5 +1,6 @@
 //! The plan editor on the left: lights, subjects, camera and viewing, zones.
 
+mod advisor;
 mod camera;
 mod lights;
 mod subjects;
@@ -11,7 +12,7 @@ use super::widgets::PanelCtx;
 /// Draw the editor.
 pub fn ui(ui: &mut egui::Ui, cx: &mut PanelCtx<'_>) {
     ui.add_space(4.0);
-    ui.horizontal(|ui| {
+    ui.horizontal_wrapped(|ui| {
         for tab in EditorTab::ALL {
             ui.selectable_value(&mut cx.view.editor_tab, tab, tab.title());
         }
@@ -25,5 +26,6 @@ pub fn ui(ui: &mut egui::Ui, cx: &mut PanelCtx<'_>) {
             EditorTab::Subjects => subjects::ui(ui, cx),
             EditorTab::Camera => camera::ui(ui, cx),
             EditorTab::Zones => zones::ui(ui, cx),
+            EditorTab::Advisor => advisor::ui(ui, cx),
         });
 }
