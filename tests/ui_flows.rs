@@ -504,3 +504,34 @@ fn the_advisor_runs_in_the_background_and_a_suggestion_applies_as_one_undo_step(
         assert_eq!(harness.state().plan(), &original);
     }
 }
+
+#[test]
+fn every_demo_plan_opens_from_the_menu_and_evaluates() {
+    let mut harness = harness();
+    let names: Vec<String> = lampwright_plan::demo_plans()
+        .into_iter()
+        .map(|p| p.name)
+        .collect();
+    assert!(names.len() >= 3, "three demo plans");
+    for name in &names {
+        harness.get_by_label("File").click();
+        harness.run();
+        harness.get_by_label("Open a demo plan").hover();
+        harness.run();
+        harness.get_by_role_and_label(Role::Button, name).click();
+        harness.run();
+        let app = harness.state();
+        assert_eq!(&app.plan().name, name);
+        assert!(
+            app.evaluation_error().is_none(),
+            "{name}: {:?}",
+            app.evaluation_error()
+        );
+        assert!(
+            !app.is_dirty(),
+            "a freshly opened demo has no unsaved changes"
+        );
+        let eval = app.evaluation().expect("evaluation");
+        assert_eq!(eval.subjects.len(), app.plan().subjects.len());
+    }
+}

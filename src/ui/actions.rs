@@ -21,8 +21,8 @@ const NO_DIALOG_THRESHOLD: Duration = Duration::from_millis(250);
 pub enum Action {
     /// Start a new plan.
     New,
-    /// Open the built-in demo plan.
-    OpenDemo,
+    /// Open a built-in demo plan (by its position in the demo list).
+    OpenDemo(usize),
     /// Choose a plan file to open.
     Open,
     /// Open this plan file.
@@ -64,7 +64,7 @@ impl Action {
     fn discards_plan(&self) -> bool {
         matches!(
             self,
-            Action::New | Action::OpenDemo | Action::Open | Action::OpenPath(_) | Action::Quit
+            Action::New | Action::OpenDemo(_) | Action::Open | Action::OpenPath(_) | Action::Quit
         )
     }
 }
@@ -95,9 +95,13 @@ pub fn menu_bar(
                     }
                 }
             });
-            if ui.button("Open demo plan").clicked() {
-                cx.actions.push(Action::OpenDemo);
-            }
+            ui.menu_button("Open a demo plan", |ui| {
+                for (i, name) in upstream::demo_names().iter().enumerate() {
+                    if ui.button(name).clicked() {
+                        cx.actions.push(Action::OpenDemo(i));
+                    }
+                }
+            });
             ui.separator();
             if ui.button("Save            Ctrl+S").clicked() {
                 cx.actions.push(Action::Save);
@@ -190,12 +194,13 @@ impl App {
                 self.replace_plan(starter_plan(), None);
                 self.notify("New plan: a 3200 K key on an 18 % grey card and a mid skin tone");
             }
-            Action::OpenDemo => match upstream::demo_plan() {
-                Ok(plan) => {
+            Action::OpenDemo(i) => match lampwright_plan::demo_plans().into_iter().nth(i) {
+                Some(plan) => {
+                    let name = plan.name.clone();
                     self.replace_plan(plan, None);
-                    self.notify("Opened the demo plan (invented data)");
+                    self.notify(format!("Opened the demo plan \"{name}\" (invented data)"));
                 }
-                Err(err) => self.notify_error(err),
+                None => self.notify_error("That demo plan could not be read"),
             },
             Action::Open => self.choose(Purpose::OpenPlan),
             Action::OpenPath(path) => self.open_path(&path),

@@ -18,6 +18,18 @@ pub fn demo_plan() -> Result<Plan, String> {
     lampwright_plan::default_demo().map_err(|e| format!("the demo plan could not be read: {e}"))
 }
 
+/// Names of the built-in demo plans, in the demo list's order.
+#[must_use]
+pub fn demo_names() -> &'static [String] {
+    static NAMES: std::sync::OnceLock<Vec<String>> = std::sync::OnceLock::new();
+    NAMES.get_or_init(|| {
+        lampwright_plan::demo_plans()
+            .into_iter()
+            .map(|p| p.name)
+            .collect()
+    })
+}
+
 /// Read a plan file.
 pub fn load_plan(path: &Path) -> Result<Plan, String> {
     lampwright_plan::load_plan(path).map_err(|e| e.to_string())

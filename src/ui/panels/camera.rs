@@ -280,8 +280,20 @@ fn viewing(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
     });
     ui.label(theme::caption("Display"));
     ui.horizontal(|ui| {
-        for (value, text) in [(Display::Srgb, "sRGB"), (Display::DisplayP3, "Display P3")] {
-            if ui.radio(viewing.display == value, text).clicked() && viewing.display != value {
+        for (value, text, hint) in [
+            (Display::Srgb, "sRGB", "For almost every screen"),
+            (
+                Display::DisplayP3,
+                "Display P3",
+                "Swatch values encoded for a Display P3 screen; on an sRGB screen they look duller",
+            ),
+        ] {
+            if ui
+                .radio(viewing.display == value, text)
+                .on_hover_text(hint)
+                .clicked()
+                && viewing.display != value
+            {
                 cx.push(Command::Display(value));
             }
         }
