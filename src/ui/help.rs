@@ -42,7 +42,7 @@ pub const METHODS: [(&str, &str, &str); 12] = [
     ),
     (
         "Key : fill",
-        "Stops between the key and the brightest lit fill, after gels.",
+        "Stops between the key and the brightest lit fill, after gels (with no fill, the ambient light).",
         "common practice",
     ),
     (
@@ -86,7 +86,7 @@ pub const CAUTIONS: [&str; 5] = [
 /// Draw the page.
 pub fn ui(ui: &mut Ui) {
     egui::ScrollArea::vertical().id_salt("help-scroll").auto_shrink([false, false]).show(ui, |ui| {
-        ui.set_max_width(860.0);
+        ui.set_max_width(ui.available_width().min(860.0));
         ui.heading("Cautions");
         theme::card().fill(egui::Color32::from_gray(50)).show(ui, |ui| {
             ui.set_width(ui.available_width());
@@ -101,16 +101,12 @@ pub fn ui(ui: &mut Ui) {
              Demo lamps, gels, subjects and cameras are invented, not measurements of products.",
         ));
         ui.add_space(4.0);
-        egui::Grid::new("methods").num_columns(2).spacing([14.0, 10.0]).striped(true).show(ui, |ui| {
-            for (figure, meaning, standard) in METHODS {
-                ui.label(RichText::new(figure).strong());
-                ui.vertical(|ui| {
-                    ui.add(egui::Label::new(meaning).wrap());
-                    ui.label(theme::caption(standard));
-                });
-                ui.end_row();
-            }
-        });
+        for (figure, meaning, standard) in METHODS {
+            ui.add_space(6.0);
+            ui.label(RichText::new(figure).strong());
+            ui.add(egui::Label::new(meaning).wrap());
+            ui.add(egui::Label::new(theme::caption(standard)).wrap());
+        }
         ui.add_space(12.0);
         ui.heading("Keys and files");
         ui.label(
