@@ -107,7 +107,14 @@ pub fn signed(value: f64, decimals: usize) -> String {
 #[must_use]
 pub fn integer(value: Option<f64>) -> String {
     match value.filter(|v| v.is_finite()) {
-        Some(v) => format!("{:.0}", v.round()),
+        Some(v) => {
+            let rounded = v.round();
+            if rounded < 0.0 {
+                format!("−{:.0}", -rounded)
+            } else {
+                format!("{:.0}", rounded.abs())
+            }
+        }
         None => DASH.into(),
     }
 }
@@ -211,6 +218,8 @@ mod tests {
         assert_eq!(duv(Some(-0.0121)), "−0.012");
         assert_eq!(duv(Some(0.0004)), "0.000");
         assert_eq!(integer(Some(94.6)), "95");
+        assert_eq!(integer(Some(-26.4)), "−26");
+        assert_eq!(integer(Some(-0.4)), "0");
         assert_eq!(delta_e(3.449), "3.4");
         assert_eq!(lux(1234.0), "1230 lx");
         assert_eq!(lux(45.26), "45.3 lx");
