@@ -3,10 +3,10 @@
 //! Each subcommand lives in its own module with a clap `Args` struct and a
 //! `run(args) -> anyhow::Result<ExitCode>` function.
 
-pub mod delta_e;
 pub mod advise;
 pub mod camera_fit;
 pub mod check;
+pub mod delta_e;
 pub mod lamp;
 pub mod report;
 
@@ -31,10 +31,10 @@ pub enum Command {
     },
     /// Lamp figures of measured spectra: chromaticity, CCT, Duv, CRI, TM-30, SSI.
     Lamp(lamp::LampArgs),
-    /// Fit a camera colour-correction matrix under a light and report each sample's ΔE2000.
-    CameraFit(camera_fit::CameraFitArgs),
     /// Colour differences ΔE76, ΔE94 and ΔE2000 of CIELAB pairs in a CSV file.
     DeltaE(delta_e::DeltaEArgs),
+    /// Fit a camera colour-correction matrix under a light and report each sample's ΔE2000.
+    CameraFit(camera_fit::CameraFitArgs),
     /// Check a plan file and list every problem in it (exit status 1 on errors).
     Check(check::CheckArgs),
     /// Evaluate a plan and write its report as text, JSON, CSV or HTML.
@@ -49,8 +49,8 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
         None => open_window(None),
         Some(Command::Open { plan }) => open_window(Some(plan)),
         Some(Command::Lamp(args)) => lamp::run(&args),
-        Some(Command::CameraFit(args)) => camera_fit::run(&args),
         Some(Command::DeltaE(args)) => delta_e::run(&args),
+        Some(Command::CameraFit(args)) => camera_fit::run(&args),
         Some(Command::Check(args)) => check::run(&args),
         Some(Command::Report(args)) => report::run(&args),
         Some(Command::Advise(args)) => advise::run(&args),

@@ -476,13 +476,21 @@ impl Plan {
     /// The next unused source id.
     #[must_use]
     pub fn next_source_id(&self) -> SourceId {
-        self.sources.iter().map(|s| s.id).max().map_or(1, |m| m.saturating_add(1))
+        self.sources
+            .iter()
+            .map(|s| s.id)
+            .max()
+            .map_or(1, |m| m.saturating_add(1))
     }
 
     /// The next unused zone id.
     #[must_use]
     pub fn next_zone_id(&self) -> ZoneId {
-        self.zones.iter().map(|z| z.id).max().map_or(1, |m| m.saturating_add(1))
+        self.zones
+            .iter()
+            .map(|z| z.id)
+            .max()
+            .map_or(1, |m| m.saturating_add(1))
     }
 
     /// The source with this id.
