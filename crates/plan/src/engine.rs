@@ -23,9 +23,9 @@ use crate::render::CameraStage;
 use crate::resolve;
 use lampwright_color::cct::{CctMethod, cct_duv_of_spd, mired};
 use lampwright_color::observer::{Observer, v_lambda};
-use lampwright_color::photometry::ev100_from_illuminance_lux;
+use lampwright_color::photometry::{ev100_from_illuminance_lux, illuminance_lux};
 use lampwright_color::spaces::Uv1960;
-use lampwright_color::spectrum::{GRID_LEN, RelativeSpd, SpectralIrradiance};
+use lampwright_color::spectrum::{Curve, GRID_LEN, RelativeSpd, SpectralIrradiance};
 use lampwright_color::tristimulus::{KM_LM_PER_W, xyz_sums};
 
 /// Below this illuminance a mix counts as dark: no colour figures.
@@ -72,13 +72,10 @@ impl SourceLight {
     }
 }
 
-fn illuminance_of(values: &[f64; GRID_LEN]) -> f64 {
-    KM_LM_PER_W
-        * values
-            .iter()
-            .zip(v_lambda())
-            .map(|(s, v)| s * v)
-            .sum::<f64>()
+/// Illuminance-equivalent of a curve's shape, `683 · Σ S(λ) V(λ) Δλ` (the core's
+/// photometry on a relative spectrum, used to scale lamps to lux).
+fn illuminance_of(curve: &Curve) -> f64 {
+    KM_LM_PER_W * curve.dot(v_lambda())
 }
 
 /// Turn one source into light at the subject: lamp, dimmer, gels, and the
@@ -97,14 +94,14 @@ pub fn source_light(plan: &Plan, source: &Source) -> Result<SourceLight> {
         .spd
         .check_colorimetric(&context)
         .map_err(|e| PlanError::color_in(&context, e))?;
-    let lamp_lux_per_unit = illuminance_of(resolved.lamp.spd.values());
+    let lamp_lux_per_unit = illuminance_of(&resolved.lamp.spd);
     if lamp_lux_per_unit <= 0.0 {
         return Err(PlanError::Invalid {
             field: context,
             message: "the lamp has no visible output".into(),
         });
     }
-    let gel_transmission = illuminance_of(resolved.filtered.values()) / lamp_lux_per_unit;
+    let gel_transmission = illuminance_of(&resolved.filtered) / lamp_lux_per_unit;
     Ok(SourceLight {
         id: source.id,
         name: source.name.clone(),
@@ -217,7 +214,7 @@ fn mix_spectrum(sources: &[SourceLight], parts: &[(usize, f64)]) -> SpectralIrra
 /// Light figures of a mix. Figures that cannot be computed are `None` and a
 /// warning names the zone and the reason.
 fn light_figures(mix: &SpectralIrradiance, zone: &str, warnings: &mut Vec<String>) -> LightFigures {
-    let lux = illuminance_of(mix.values());
+    let lux = illuminance_lux(mix);
     let mut fig = LightFigures {
         spectrum: mix.values().to_vec(),
         illuminance_lux: lux,
