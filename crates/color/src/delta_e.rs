@@ -192,10 +192,10 @@ fn hue_difference_and_mean(h1: f64, h2: f64, chroma_product: f64) -> (f64, f64) 
     }
 }
 
-/// CIEDE2000 hue weighting (Sharma et al. 2005 eq. 15), from one sine/cosine
-/// pair by the multiple-angle identities:
+/// CIEDE2000 hue weighting (Sharma et al. 2005 eq. 15) from the sine and
+/// cosine of h̄′, by the multiple-angle identities:
 /// T(h̄′) = 1 − 0.17 cos(h̄′ − 30°) + 0.24 cos 2h̄′ + 0.32 cos(3h̄′ + 6°) − 0.20 cos(4h̄′ − 63°).
-fn hue_weight_t(h_bar_deg: f64) -> f64 {
+fn hue_weight_t(s1: f64, c1: f64) -> f64 {
     // cos/sin of 30°, 6°, 63°.
     const C30: f64 = 0.866_025_403_784_438_6;
     const S30: f64 = 0.5;
@@ -203,7 +203,6 @@ fn hue_weight_t(h_bar_deg: f64) -> f64 {
     const S6: f64 = 0.104_528_463_267_653_47;
     const C63: f64 = 0.453_990_499_739_546_8;
     const S63: f64 = 0.891_006_524_188_367_9;
-    let (s1, c1) = h_bar_deg.to_radians().sin_cos();
     let (c2, s2) = (2.0 * c1 * c1 - 1.0, 2.0 * s1 * c1);
     let (c3, s3) = (c1 * (4.0 * c1 * c1 - 3.0), s1 * (3.0 - 4.0 * s1 * s1));
     let (c4, s4) = (2.0 * c2 * c2 - 1.0, 2.0 * s2 * c2);
@@ -211,9 +210,75 @@ fn hue_weight_t(h_bar_deg: f64) -> f64 {
         - 0.20 * (c4 * C63 + s4 * S63)
 }
 
+/// Below this length of the sum of the two unit hue vectors the hues are
+/// treated as (nearly) opposite and the angle-based rules decide the mean hue.
+const OPPOSITE_HUES: f64 = 1e-6;
+
+/// ΔH′, h̄′ (degrees, [0, 360)) and (sin h̄′, cos h̄′) of two colours with
+/// non-zero chroma whose hues are not opposite, without hue angles:
+/// ΔH′ = 2√(C′1C′2)·sin(Δh′/2), with sin Δh′ and cos Δh′ from the cross and
+/// dot products of the unit hue vectors; h̄′ is the direction of their sum,
+/// which bisects the shorter arc, as Sharma et al.'s rules for h̄′ do.
+fn hue_terms_by_vectors(
+    (a1p, b1, c1p): (f64, f64, f64),
+    (a2p, b2, c2p): (f64, f64, f64),
+) -> Option<(f64, f64, (f64, f64))> {
+    let (u1a, u1b) = (a1p / c1p, b1 / c1p);
+    let (u2a, u2b) = (a2p / c2p, b2 / c2p);
+    let (sa, sb) = (u1a + u2a, u1b + u2b);
+    let norm = chroma(sa, sb);
+    if norm < OPPOSITE_HUES {
+        return None;
+    }
+    // sin Δh′ and cos Δh′ of the unit vectors; sin(Δh′/2) by whichever
+    // half-angle form is well conditioned (no cancellation for small Δh′).
+    let cross = u1a * u2b - u1b * u2a;
+    let dot = u1a * u2a + u1b * u2b;
+    let half_sin = if dot >= 0.0 {
+        cross / (2.0 * (1.0 + dot)).sqrt()
+    } else {
+        (0.5 * (1.0 - dot)).sqrt().copysign(cross)
+    };
+    let d_big_h = 2.0 * (c1p * c2p).sqrt() * half_sin;
+    let mut h_bar = sb.atan2(sa).to_degrees();
+    if h_bar < 0.0 {
+        h_bar += 360.0;
+    }
+    if h_bar >= 360.0 {
+        h_bar -= 360.0;
+    }
+    Some((d_big_h, h_bar, (sb / norm, sa / norm)))
+}
+
+/// ΔH′, h̄′ and (sin h̄′, cos h̄′) from hue angles, with Sharma et al.'s rules
+/// for zero chroma and opposite hues.
+fn hue_terms_by_angles(
+    (a1p, b1, c1p): (f64, f64, f64),
+    (a2p, b2, c2p): (f64, f64, f64),
+) -> (f64, f64, (f64, f64)) {
+    let hue = |ap: f64, b: f64| {
+        if ap == 0.0 && b == 0.0 {
+            0.0
+        } else {
+            hue_angle_deg(ap, b)
+        }
+    };
+    let chroma_product = c1p * c2p;
+    let (dhp, h_bar) = hue_difference_and_mean(hue(a1p, b1), hue(a2p, b2), chroma_product);
+    let d_big_h = 2.0 * chroma_product.sqrt() * (dhp.to_radians() / 2.0).sin();
+    (d_big_h, h_bar, h_bar.to_radians().sin_cos())
+}
+
 /// CIEDE2000 with chosen parametric factors; see [`delta_e_ciede2000`].
 #[must_use]
 pub fn delta_e_ciede2000_weighted(lab1: Lab, lab2: Lab, weights: Ciede2000Weights) -> f64 {
+    ciede2000(lab1, lab2, weights, true)
+}
+
+/// CIEDE2000; `by_vectors` takes the hue terms from the hue vectors where
+/// they are defined (same result, fewer trigonometric calls) instead of from
+/// the hue angles everywhere.
+fn ciede2000(lab1: Lab, lab2: Lab, weights: Ciede2000Weights, by_vectors: bool) -> f64 {
     const POW25_7: f64 = 6_103_515_625.0; // 25⁷
     let c1 = chroma(lab1.a, lab1.b);
     let c2 = chroma(lab2.a, lab2.b);
@@ -223,26 +288,19 @@ pub fn delta_e_ciede2000_weighted(lab1: Lab, lab2: Lab, weights: Ciede2000Weight
     let a2p = (1.0 + g) * lab2.a;
     let c1p = chroma(a1p, lab1.b);
     let c2p = chroma(a2p, lab2.b);
-    let hue = |ap: f64, b: f64| {
-        if ap == 0.0 && b == 0.0 {
-            0.0
-        } else {
-            hue_angle_deg(ap, b)
-        }
-    };
-    let h1p = hue(a1p, lab1.b);
-    let h2p = hue(a2p, lab2.b);
+    let one = (a1p, lab1.b, c1p);
+    let two = (a2p, lab2.b, c2p);
+    let (d_big_h, h_bar, (sin_h, cos_h)) = (by_vectors && c1p > 0.0 && c2p > 0.0)
+        .then(|| hue_terms_by_vectors(one, two))
+        .flatten()
+        .unwrap_or_else(|| hue_terms_by_angles(one, two));
 
     let dl = lab2.l - lab1.l;
     let dc = c2p - c1p;
-    let chroma_product = c1p * c2p;
-    let (dhp, h_bar) = hue_difference_and_mean(h1p, h2p, chroma_product);
-    let d_big_h = 2.0 * chroma_product.sqrt() * (dhp.to_radians() / 2.0).sin();
-
     let l_bar = f64::midpoint(lab1.l, lab2.l);
     let c_bar_p = f64::midpoint(c1p, c2p);
 
-    let t = hue_weight_t(h_bar);
+    let t = hue_weight_t(sin_h, cos_h);
     let d_theta_deg = 30.0 * (-((h_bar - 275.0) / 25.0).powi(2)).exp();
     let c_bar_p7 = c_bar_p.powi(7);
     let r_c = 2.0 * (c_bar_p7 / (c_bar_p7 + POW25_7)).sqrt();
@@ -261,6 +319,16 @@ pub fn delta_e_ciede2000_weighted(lab1: Lab, lab2: Lab, weights: Ciede2000Weight
         .sqrt()
 }
 
+/// A lower bound of ΔE00 (kL = 1) that costs one square root: the lightness
+/// term alone, |ΔL| / `S_L`, since the rest of the quadratic form,
+/// ΔC′² + ΔH′² + `R_T`·ΔC′·ΔH′ (scaled) with |`R_T`| ≤ 2, is never negative.
+#[must_use]
+pub fn ciede2000_lower_bound(lab1: Lab, lab2: Lab) -> f64 {
+    let l50 = (f64::midpoint(lab1.l, lab2.l) - 50.0).powi(2);
+    let s_l = 1.0 + 0.015 * l50 / (20.0 + l50).sqrt();
+    (lab2.l - lab1.l).abs() / s_l
+}
+
 #[cfg(test)]
 #[allow(clippy::float_cmp)] // Exact zeros and identical results are the properties under test.
 mod tests {
@@ -269,6 +337,28 @@ mod tests {
 
     fn lab() -> impl Strategy<Value = Lab> {
         (0.0..100.0f64, -128.0..128.0f64, -128.0..128.0f64).prop_map(|(l, a, b)| Lab::new(l, a, b))
+    }
+
+    proptest! {
+        #[test]
+        fn hue_vectors_give_the_angle_formulas_result(l1 in lab(), l2 in lab()) {
+            // Two algebraically equal forms of Sharma et al. (2005) eqs. 10–15.
+            let w = Ciede2000Weights::REFERENCE;
+            let fast = ciede2000(l1, l2, w, true);
+            let slow = ciede2000(l1, l2, w, false);
+            prop_assert!((fast - slow).abs() <= 1e-9 * slow.max(1.0), "{} vs {}", fast, slow);
+            prop_assert!(ciede2000_lower_bound(l1, l2) <= fast + 1e-12);
+        }
+
+        #[test]
+        fn near_opposite_and_equal_hues_agree(l in 0.0..100.0f64, c in 0.01..100.0f64, h in 0.0..360.0f64, eps in -1e-5..1e-5f64) {
+            let w = Ciede2000Weights::REFERENCE;
+            let at = |deg: f64| Lab::new(l, c * deg.to_radians().cos(), c * deg.to_radians().sin());
+            for other in [h + 180.0 + eps, h + eps, h + 180.0] {
+                let (fast, slow) = (ciede2000(at(h), at(other), w, true), ciede2000(at(h), at(other), w, false));
+                prop_assert!((fast - slow).abs() <= 1e-7 * slow.max(1.0), "{} vs {}", fast, slow);
+            }
+        }
     }
 
     #[test]
@@ -328,7 +418,8 @@ mod tests {
                 + 0.24 * (2.0 * h).to_radians().cos()
                 + 0.32 * (3.0 * h + 6.0).to_radians().cos()
                 - 0.20 * (4.0 * h - 63.0).to_radians().cos();
-            assert!((hue_weight_t(h) - direct).abs() < 1e-14, "{h}");
+            let (s, c) = h.to_radians().sin_cos();
+            assert!((hue_weight_t(s, c) - direct).abs() < 1e-14, "{h}");
         }
     }
 
