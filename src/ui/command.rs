@@ -92,6 +92,8 @@ pub enum Command {
     RenameZone(ZoneId, String),
     /// Remove a zone.
     RemoveZone(ZoneId),
+    /// Set how much a zone counts in the advisor's camera-fidelity goal.
+    ZoneWeight(ZoneId, f64),
     /// Set (Some) or remove (None) a source's reach into a zone.
     Reach {
         /// Zone.
@@ -130,6 +132,8 @@ pub enum CoalesceKey {
     WhiteBalance,
     /// A zone's name.
     ZoneName(ZoneId),
+    /// A zone's fidelity weight.
+    ZoneWeight(ZoneId),
     /// A source's level in a zone.
     Reach(ZoneId, SourceId),
 }
@@ -153,6 +157,7 @@ impl Command {
                 Some(CoalesceKey::WhiteBalance)
             }
             Command::RenameZone(id, _) => Some(CoalesceKey::ZoneName(*id)),
+            Command::ZoneWeight(id, _) => Some(CoalesceKey::ZoneWeight(*id)),
             Command::Reach {
                 zone,
                 source,
@@ -340,6 +345,10 @@ pub fn apply(plan: &mut Plan, command: Command) -> Result<(), CommandError> {
         Command::Display(d) => plan.viewing.display = d,
         Command::AddZone(name) => add_zone(plan, name)?,
         Command::RenameZone(id, name) => zone_mut(plan, id)?.name = name,
+        Command::ZoneWeight(id, weight) => {
+            let weight = finite_non_negative(weight, "zone weight")?;
+            zone_mut(plan, id)?.weight = weight;
+        }
         Command::RemoveZone(id) => {
             zone_mut(plan, id)?;
             plan.zones.retain(|z| z.id != id);
@@ -430,7 +439,12 @@ fn add_zone(plan: &mut Plan, name: String) -> Result<(), CommandError> {
             level: ZoneLevel::AsSource,
         })
         .collect();
-    plan.zones.push(Zone { id, name, reach });
+    plan.zones.push(Zone {
+        id,
+        name,
+        reach,
+        ..Zone::default()
+    });
     Ok(())
 }
 

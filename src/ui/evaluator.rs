@@ -14,6 +14,7 @@ pub struct Evaluator {
     error: Option<String>,
     last_duration_ms: f64,
     evaluations: u64,
+    engine: lampwright_plan::engine::Evaluator,
 }
 
 impl Evaluator {
@@ -22,8 +23,9 @@ impl Evaluator {
         let started = Instant::now();
         // The engine reports bad plans as errors; catching a panic as well
         // keeps a bug in a formula from closing the window with unsaved work.
+        let engine = &mut self.engine;
         let outcome = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
-            super::upstream::evaluate(plan)
+            super::upstream::evaluate(engine, plan)
         }));
         self.last_duration_ms = started.elapsed().as_secs_f64() * 1000.0;
         self.evaluations += 1;
@@ -34,6 +36,8 @@ impl Evaluator {
             }
             Ok(Err(err)) => self.error = Some(err),
             Err(_) => {
+                // The caches may hold half-made entries after a panic: start afresh.
+                self.engine = lampwright_plan::engine::Evaluator::default();
                 self.error = Some(
                     "internal error while evaluating the plan (please report it with the plan file)"
                         .into(),

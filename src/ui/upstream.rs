@@ -7,9 +7,13 @@ use lampwright_plan::{
 };
 use std::path::Path;
 
-/// Evaluate a plan (errors as the plan crate's one-line messages).
-pub fn evaluate(plan: &Plan) -> Result<Evaluation, String> {
-    lampwright_plan::evaluate(plan).map_err(|e| e.to_string())
+/// Evaluate a plan with the engine's incremental evaluator, which reuses the
+/// work an edit did not touch (errors as the plan crate's one-line messages).
+pub fn evaluate(
+    engine: &mut lampwright_plan::engine::Evaluator,
+    plan: &Plan,
+) -> Result<Evaluation, String> {
+    engine.evaluate(plan).map_err(|e| e.to_string())
 }
 
 /// The built-in demo plan the window opens on, or the reason it cannot be

@@ -34,7 +34,7 @@ use crate::sensitivities::CameraSensitivities;
 use crate::training::TrainingSet;
 use crate::white_balance::{ResolvedWhiteBalance, WhiteBalance, resolve_white_balance};
 use lampwright_color::adaptation::apply_matrix;
-use lampwright_color::delta_e::delta_e_ciede2000;
+use lampwright_color::delta_e::{ciede2000_lower_bound, delta_e_ciede2000};
 use lampwright_color::observer::Observer;
 use lampwright_color::spaces::Lab;
 use lampwright_color::{Reflectance, RelativeSpd, Xyz};
@@ -199,17 +199,36 @@ impl CameraPipeline {
         self.compare_signals(&self.scene.subjects(reflectances))
     }
 
-    /// Compare subjects whose signals were already integrated with [`CameraPipeline::scene`].
+    /// Compare subjects whose signals were already integrated with [`CameraPipeline::scene`],
+    /// with the white balance estimated from these subjects (for automatic modes).
     pub fn compare_signals(&self, signals: &[SubjectSignal]) -> Result<Comparison> {
-        let white_balance = match self.fixed_white_balance {
-            Some(wb) => wb,
+        self.compare_signals_balanced(signals, self.white_balance_for(signals)?)
+    }
+
+    /// The white balance the camera sets for a frame whose subjects give
+    /// `frame` (every subject the camera sees, each at its own exposure).
+    /// Fixed modes ignore `frame`; grey world and brightest neutral estimate
+    /// from all of it; a grey card is looked for in it.
+    pub fn white_balance_for(&self, frame: &[SubjectSignal]) -> Result<ResolvedWhiteBalance> {
+        match self.fixed_white_balance {
+            Some(wb) => Ok(wb),
             None => resolve_white_balance(
                 &self.settings.white_balance,
                 &self.camera,
                 self.scene.white().raw_rgb,
-                signals,
-            )?,
-        };
+                frame,
+            ),
+        }
+    }
+
+    /// Compare subjects with a white balance already chosen for the frame
+    /// (see [`CameraPipeline::white_balance_for`]), as one frame is shot:
+    /// every part of it through the same gains and matrix.
+    pub fn compare_signals_balanced(
+        &self,
+        signals: &[SubjectSignal],
+        white_balance: ResolvedWhiteBalance,
+    ) -> Result<Comparison> {
         let estimated_cct_k = self
             .locus
             .nearest(white_balance.gains.neutral_raw())
@@ -284,6 +303,14 @@ pub fn camera_metamers(subjects: &[SubjectComparison]) -> CameraMetamers {
     let mut out = CameraMetamers::default();
     for (i, a) in subjects.iter().enumerate() {
         for (j, b) in subjects.iter().enumerate().skip(i + 1) {
+            // A pair matters only when one viewer sees a match (ΔE00 below
+            // the match threshold); skip pairs whose lightness alone puts
+            // both differences above it.
+            if ciede2000_lower_bound(a.eye_lab, b.eye_lab) >= METAMER_MATCH_DE
+                && ciede2000_lower_bound(a.camera_lab, b.camera_lab) >= METAMER_MATCH_DE
+            {
+                continue;
+            }
             let pair = MetamerPair {
                 first: i,
                 second: j,

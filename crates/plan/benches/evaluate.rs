@@ -1,7 +1,8 @@
 //! Benchmarks of the evaluation engine on the café demo plan.
 
 use criterion::{Criterion, criterion_group, criterion_main};
-use lampwright_plan::{Plan, evaluate, load_plan};
+use lampwright_plan::engine::Evaluator;
+use lampwright_plan::{Plan, SourceRole, WhiteBalanceSetting, evaluate, load_plan};
 use std::hint::black_box;
 use std::path::Path;
 
@@ -18,15 +19,48 @@ fn bench(c: &mut Criterion) {
     c.bench_function("evaluate café demo (all zones, all metrics)", |b| {
         b.iter(|| evaluate(black_box(&plan)).expect("evaluates"));
     });
+    // The window's way: one incremental evaluator for the session.
+    let mut engine = Evaluator::new();
+    engine.evaluate(&plan).expect("evaluates");
     let mut changed = plan.clone();
-    c.bench_function("evaluate café demo after one level change", |b| {
+    let key = changed
+        .sources
+        .iter()
+        .position(|s| s.role == SourceRole::Key)
+        .unwrap_or(0);
+    let base = changed.sources[key].level_lux;
+    c.bench_function("evaluator: café demo after one key level change", |b| {
         let mut k = 0u32;
         b.iter(|| {
             k = k.wrapping_add(1);
-            if let Some(s) = changed.sources.first_mut() {
-                s.level_lux = 400.0 + f64::from(k % 7) * 10.0;
-            }
-            evaluate(black_box(&changed)).expect("evaluates")
+            changed.sources[key].level_lux = base * (1.0 + f64::from(k % 64) / 64.0);
+            engine.evaluate(black_box(&changed)).expect("evaluates")
+        });
+    });
+    let background = changed
+        .sources
+        .iter()
+        .position(|s| s.role == SourceRole::Background)
+        .unwrap_or(0);
+    let base = changed.sources[background].level_lux;
+    c.bench_function(
+        "evaluator: café demo after one background level change",
+        |b| {
+            let mut k = 0u32;
+            b.iter(|| {
+                k = k.wrapping_add(1);
+                changed.sources[background].level_lux = base * (1.0 + f64::from(k % 64) / 64.0);
+                engine.evaluate(black_box(&changed)).expect("evaluates")
+            });
+        },
+    );
+    c.bench_function("evaluator: café demo after a white-balance change", |b| {
+        let mut k = 0u32;
+        b.iter(|| {
+            k = k.wrapping_add(1);
+            changed.camera.white_balance =
+                WhiteBalanceSetting::Kelvin(3000.0 + f64::from(k % 64) * 50.0);
+            engine.evaluate(black_box(&changed)).expect("evaluates")
         });
     });
 }

@@ -8,7 +8,8 @@
 //! 2. each zone mixes the sources that reach it (one implicit zone when the
 //!    plan has none) and gets its light figures (lux, EV, CCT, Duv, CRI, TM-30, SSI);
 //! 3. the camera gets one white balance and one matrix for the whole frame,
-//!    set from the main zone as a real camera would;
+//!    as a real camera: the matrix from the main zone's light, automatic
+//!    white balance metered over the subjects of every zone;
 //! 4. every subject is rendered in every zone, eye versus camera.
 //!
 //! Nothing that leaves here is NaN: quantities that cannot be computed are
@@ -305,84 +306,265 @@ fn summarise(subjects: &[SubjectResult]) -> Summary {
 
 /// Evaluate a plan. Pure: the same plan gives the same evaluation.
 pub fn evaluate(plan: &Plan) -> Result<Evaluation> {
-    let mut warnings = Vec::new();
-    let sources: Vec<SourceLight> = plan
-        .sources
-        .iter()
-        .map(|s| source_light(plan, s))
-        .collect::<Result<_>>()?;
-    for (s, r) in plan.sources.iter().zip(&sources) {
-        let loss = -r.gel_transmission.max(f64::MIN_POSITIVE).log2();
-        if loss > GEL_LOSS_WARNING_STOPS {
-            warnings.push(format!(
-                "source '{}': its gels cost {loss:.1} stops of light",
-                s.name
-            ));
-        }
-        if r.coverage.start_nm > 380.0 || r.coverage.end_nm < 780.0 {
-            warnings.push(format!(
-                "source '{}': its lamp and gel data cover only {:.0}–{:.0} nm; ends are extended",
-                s.name, r.coverage.start_nm, r.coverage.end_nm
-            ));
+    Evaluator::default().evaluate(plan)
+}
+
+/// Cached entries of each kind an [`Evaluator`] keeps (the oldest goes first).
+const CACHE_ENTRIES: usize = 32;
+
+/// What fixes a source's light apart from its level: lamp, dimmer and gels.
+#[derive(Debug, Clone, PartialEq)]
+struct SourceKey {
+    lamp: crate::model::LampRef,
+    dimmer_bits: u64,
+    gels: Vec<crate::model::GelLayer>,
+}
+
+impl SourceKey {
+    fn of(source: &Source) -> SourceKey {
+        SourceKey {
+            lamp: source.lamp.clone(),
+            dimmer_bits: source.dimmer.to_bits(),
+            gels: source.gels.clone(),
         }
     }
-    let mixes = zone_mixes(plan, &sources)?;
-    let zone_spectra: Vec<SpectralIrradiance> = mixes
-        .iter()
-        .map(|m| mix_spectrum(&sources, &m.parts))
-        .collect();
-    let zone_lights: Vec<LightFigures> = mixes
-        .iter()
-        .zip(&zone_spectra)
-        .map(|(m, spd)| light_figures(spd, &m.name, &mut warnings))
-        .collect();
+}
 
-    let subjects = plan
-        .subjects
-        .iter()
-        .map(|s| resolve::subject_reflectance(plan, &s.subject))
-        .collect::<Result<Vec<_>>>()?;
-    let camera = CameraStage::new(plan, &zone_spectra[0], &subjects)?;
-    let mut zones = Vec::with_capacity(mixes.len());
-    let mut metamers = Vec::new();
-    let main_lux = zone_lights[0].illuminance_lux;
-    for ((m, spd), light) in mixes.iter().zip(&zone_spectra).zip(zone_lights) {
-        let rendered = camera.render(plan, spd, &subjects, &mut warnings)?;
-        if zones.is_empty() {
-            metamers = rendered.metamers;
+/// A zone's light figures and the warnings they raised, for one exact mix.
+#[derive(Debug, Clone)]
+struct ZoneEntry {
+    name: String,
+    spectrum: Vec<f64>,
+    figures: LightFigures,
+    warnings: Vec<String>,
+}
+
+/// Keep at most [`CACHE_ENTRIES`], dropping the oldest.
+fn remember<T>(cache: &mut Vec<T>, entry: T) {
+    if cache.len() >= CACHE_ENTRIES {
+        cache.remove(0);
+    }
+    cache.push(entry);
+}
+
+/// Evaluates a plan that is being edited, reusing the work an edit did not
+/// touch: each source's filtered light (keyed by lamp, dimmer and gels), each
+/// zone's light figures (keyed by its exact mixed spectrum), the camera's
+/// quality figures and its set-up under an unchanged main light. Every
+/// result equals [`evaluate`]'s bit for bit: a cache only ever returns what
+/// the same computation gave before, and the plan's embedded library is part
+/// of every key (a change to it clears the caches).
+#[derive(Default)]
+pub struct Evaluator {
+    custom: Option<crate::model::CustomLibrary>,
+    sources: Vec<(SourceKey, SourceLight)>,
+    zones: Vec<ZoneEntry>,
+    cameras: Vec<(crate::model::CameraRef, crate::render::CameraQuality)>,
+    pipelines: Vec<crate::render::PipelineEntry>,
+    hits: u64,
+    misses: u64,
+}
+
+impl std::fmt::Debug for Evaluator {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.debug_struct("Evaluator")
+            .field("sources", &self.sources.len())
+            .field("zones", &self.zones.len())
+            .field("hits", &self.hits)
+            .field("misses", &self.misses)
+            .finish_non_exhaustive()
+    }
+}
+
+impl Evaluator {
+    /// A new evaluator with empty caches.
+    #[must_use]
+    pub fn new() -> Evaluator {
+        Evaluator::default()
+    }
+
+    /// Cache hits and misses so far (all kinds together).
+    #[must_use]
+    pub fn hits_and_misses(&self) -> (u64, u64) {
+        (self.hits, self.misses)
+    }
+
+    fn sync_library(&mut self, plan: &Plan) {
+        if self.custom.as_ref() != Some(&plan.custom) {
+            *self = Evaluator {
+                custom: Some(plan.custom.clone()),
+                hits: self.hits,
+                misses: self.misses,
+                ..Evaluator::default()
+            };
         }
-        let stops_from_main = (main_lux > DARK_LUX && light.illuminance_lux > DARK_LUX)
-            .then(|| (light.illuminance_lux / main_lux).log2());
-        let mired_from_white_balance = match (light.mired, camera.figures().wb_cct_k) {
-            (Some(zm), Some(wb)) => mired(wb).ok().map(|wm| zm - wm),
-            _ => None,
+    }
+
+    fn source_light(&mut self, plan: &Plan, source: &Source) -> Result<SourceLight> {
+        let key = SourceKey::of(source);
+        let Some((_, cached)) = self.sources.iter().find(|(k, _)| *k == key) else {
+            self.misses += 1;
+            let light = source_light(plan, source)?;
+            remember(&mut self.sources, (key, light.clone()));
+            return Ok(light);
         };
-        zones.push(ZoneEvaluation {
-            zone_id: m.id,
-            name: m.name.clone(),
-            light,
-            stops_from_main,
-            mired_from_white_balance,
-            subjects: rendered.subjects,
-        });
+        self.hits += 1;
+        if !source.level_lux.is_finite() || source.level_lux < 0.0 {
+            // The same refusal as a fresh computation.
+            return source_light(plan, source);
+        }
+        Ok(SourceLight {
+            id: source.id,
+            name: source.name.clone(),
+            role: source.role,
+            lit: plan.is_lit(source),
+            level_lux: source.level_lux,
+            ..cached.clone()
+        })
     }
-    zone_warnings(&zones, &mut warnings);
 
-    let main_parts = &mixes[0].parts;
-    let source_figures = source_figures(&sources, main_parts);
-    let main = &zones[0];
-    let subjects_main = main.subjects.clone();
-    let summary = summarise(&subjects_main);
-    Ok(Evaluation {
-        light: main.light.clone(),
-        sources: source_figures,
-        summary,
-        metamers,
-        camera: camera.figures().clone(),
-        subjects: subjects_main,
-        zones,
-        warnings,
-    })
+    fn zone_figures(
+        &mut self,
+        mix: &SpectralIrradiance,
+        zone: &str,
+        warnings: &mut Vec<String>,
+    ) -> LightFigures {
+        let values = mix.values();
+        if let Some(e) = self
+            .zones
+            .iter()
+            .find(|e| e.name == zone && e.spectrum.as_slice() == values.as_slice())
+        {
+            self.hits += 1;
+            warnings.extend(e.warnings.iter().cloned());
+            return e.figures.clone();
+        }
+        self.misses += 1;
+        let mut own = Vec::new();
+        let figures = light_figures(mix, zone, &mut own);
+        warnings.extend(own.iter().cloned());
+        remember(
+            &mut self.zones,
+            ZoneEntry {
+                name: zone.to_owned(),
+                spectrum: values.to_vec(),
+                figures: figures.clone(),
+                warnings: own,
+            },
+        );
+        figures
+    }
+
+    fn camera_quality(
+        &mut self,
+        plan: &Plan,
+        camera: &lampwright_camera::CameraSensitivities,
+    ) -> Result<crate::render::CameraQuality> {
+        if let Some((_, q)) = self.cameras.iter().find(|(r, _)| *r == plan.camera.camera) {
+            self.hits += 1;
+            return Ok(*q);
+        }
+        self.misses += 1;
+        let q = crate::render::CameraQuality::of(camera)?;
+        remember(&mut self.cameras, (plan.camera.camera.clone(), q));
+        Ok(q)
+    }
+
+    /// Evaluate `plan`, reusing cached work; the result equals [`evaluate`]'s.
+    pub fn evaluate(&mut self, plan: &Plan) -> Result<Evaluation> {
+        self.sync_library(plan);
+        let mut warnings = Vec::new();
+        let sources: Vec<SourceLight> = plan
+            .sources
+            .iter()
+            .map(|s| self.source_light(plan, s))
+            .collect::<Result<_>>()?;
+        for (s, r) in plan.sources.iter().zip(&sources) {
+            let loss = -r.gel_transmission.max(f64::MIN_POSITIVE).log2();
+            if loss > GEL_LOSS_WARNING_STOPS {
+                warnings.push(format!(
+                    "source '{}': its gels cost {loss:.1} stops of light",
+                    s.name
+                ));
+            }
+            if r.coverage.start_nm > 380.0 || r.coverage.end_nm < 780.0 {
+                warnings.push(format!(
+                    "source '{}': its lamp and gel data cover only {:.0}–{:.0} nm; ends are extended",
+                    s.name, r.coverage.start_nm, r.coverage.end_nm
+                ));
+            }
+        }
+        let mixes = zone_mixes(plan, &sources)?;
+        let zone_spectra: Vec<SpectralIrradiance> = mixes
+            .iter()
+            .map(|m| mix_spectrum(&sources, &m.parts))
+            .collect();
+        let zone_lights: Vec<LightFigures> = mixes
+            .iter()
+            .zip(&zone_spectra)
+            .map(|(m, spd)| self.zone_figures(spd, &m.name, &mut warnings))
+            .collect();
+
+        let subjects = plan
+            .subjects
+            .iter()
+            .map(|s| resolve::subject_reflectance(plan, &s.subject))
+            .collect::<Result<Vec<_>>>()?;
+        let camera_sens = resolve::camera_sensitivities(plan, &plan.camera.camera)?;
+        let quality = self.camera_quality(plan, &camera_sens)?;
+        let camera = CameraStage::new(
+            plan,
+            &camera_sens,
+            quality,
+            &zone_spectra,
+            &subjects,
+            &mut self.pipelines,
+        )?;
+        let mut zones = Vec::with_capacity(mixes.len());
+        let mut metamers = Vec::new();
+        let main_lux = zone_lights[0].illuminance_lux;
+        for (z, (m, light)) in mixes.iter().zip(zone_lights).enumerate() {
+            let rendered = camera.render(plan, z, &subjects, z == 0, &mut warnings)?;
+            if zones.is_empty() {
+                metamers = rendered.metamers;
+            }
+            let stops_from_main = (main_lux > DARK_LUX && light.illuminance_lux > DARK_LUX)
+                .then(|| (light.illuminance_lux / main_lux).log2());
+            let mired_from_white_balance = match (light.mired, camera.figures().wb_cct_k) {
+                (Some(zm), Some(wb)) => mired(wb).ok().map(|wm| zm - wm),
+                _ => None,
+            };
+            zones.push(ZoneEvaluation {
+                zone_id: m.id,
+                name: m.name.clone(),
+                light,
+                stops_from_main,
+                mired_from_white_balance,
+                subjects: rendered.subjects,
+            });
+        }
+        zone_warnings(&zones, &mut warnings);
+
+        let main_parts = &mixes[0].parts;
+        let source_figures = source_figures(&sources, main_parts);
+        let main = &zones[0];
+        let subjects_main = main.subjects.clone();
+        let summary = summarise(&subjects_main);
+        Ok(Evaluation {
+            light: main.light.clone(),
+            sources: source_figures,
+            summary,
+            metamers,
+            camera: camera.figures().clone(),
+            subjects: subjects_main,
+            zones,
+            // Warnings quote zone, source and subject names: one line each.
+            warnings: warnings
+                .iter()
+                .map(|w| crate::error::one_line(w).into_owned())
+                .collect(),
+        })
+    }
 }
 
 fn source_figures(sources: &[SourceLight], parts: &[(usize, f64)]) -> Vec<SourceFigures> {

@@ -197,6 +197,9 @@ pub struct Zone {
     pub name: String,
     /// Which sources reach this zone, and how strongly. Sources not listed do not reach it.
     pub reach: Vec<ZoneReach>,
+    /// How much this zone counts in the advisor's camera-fidelity goal,
+    /// relative to the other zones (0 leaves it out; 1 when the file does not say).
+    pub weight: f64,
 }
 
 impl Default for Zone {
@@ -205,6 +208,7 @@ impl Default for Zone {
             id: 0,
             name: "Zone".into(),
             reach: Vec::new(),
+            weight: 1.0,
         }
     }
 }

@@ -1,5 +1,6 @@
 //! The camera stage of the evaluation: one white balance and one matrix for
-//! the whole frame, set from the main zone's light, then every subject in
+//! the whole frame (matrix and eye adaptation from the main zone's light,
+//! automatic white balance metered over every zone), then every subject in
 //! every zone rendered eye versus camera.
 //!
 //! A zone other than the main one is rendered at its own exposure relative to
@@ -10,15 +11,16 @@
 use crate::error::Result;
 use crate::evaluation::{CameraFigures, MetamerPair, SubjectResult};
 use crate::model::{
-    Adaptation, Display, FitMethod, MatrixMode, Plan, WbPreset, WhiteBalanceSetting,
+    Adaptation, CameraRef, Display, FitMethod, MatrixMode, Plan, WbPreset, WhiteBalanceSetting,
 };
-use crate::resolve::{self, ResolvedSubject};
+use crate::resolve::ResolvedSubject;
 use lampwright_camera::display::DisplaySpace;
 use lampwright_camera::pipeline::{
     CameraPipeline, CameraSettings, SubjectComparison, camera_metamers,
 };
 use lampwright_camera::quality::{luther_residual, vora_trussell_mu};
 use lampwright_camera::raw::{SceneResponse, SubjectSignal, raw_of_light};
+use lampwright_camera::white_balance::ResolvedWhiteBalance;
 use lampwright_camera::{CameraSensitivities, TrainingSet, WhiteBalance};
 use lampwright_color::observer::Observer;
 use lampwright_color::spectrum::SpectralIrradiance;
@@ -29,13 +31,45 @@ const DARK: f64 = 1e-12;
 
 /// The camera set up for the frame.
 pub struct CameraStage {
-    camera: CameraSensitivities,
     /// `None` when the main zone is dark: every subject renders black.
     pipeline: Option<CameraPipeline>,
-    main_raw_g: f64,
-    main_y: f64,
+    /// One white balance for the whole frame.
+    white_balance: Option<ResolvedWhiteBalance>,
+    /// Per zone, the subjects' signals at that zone's exposure.
+    zone_signals: Vec<Vec<SubjectSignal>>,
     figures: CameraFigures,
 }
+
+/// The camera's quality figures, which depend on its sensitivities alone.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CameraQuality {
+    /// Luther residual.
+    pub luther_residual: f64,
+    /// Vora–Trussell µ-factor.
+    pub mu_factor: f64,
+}
+
+impl CameraQuality {
+    /// Compute them for `camera`.
+    pub fn of(camera: &CameraSensitivities) -> Result<CameraQuality> {
+        Ok(CameraQuality {
+            luther_residual: luther_residual(camera)?,
+            mu_factor: vora_trussell_mu(camera)?,
+        })
+    }
+}
+
+/// A camera pipeline set up under one main light, kept for reuse while the
+/// camera, its settings and that light stay the same.
+pub struct PipelineEntry {
+    camera: CameraRef,
+    settings: CameraSettings,
+    light: Vec<f64>,
+    pipeline: CameraPipeline,
+}
+
+/// Pipelines kept at most.
+const PIPELINES_KEPT: usize = 8;
 
 /// One zone rendered.
 pub struct Rendered {
@@ -93,54 +127,138 @@ fn peak_normalised(values: &[f64]) -> Vec<f64> {
     }
 }
 
+/// Every subject's signals under a zone's light, scaled to the zone's
+/// exposure relative to the main zone (zeros for a dark zone).
+fn zone_signals(
+    camera: &CameraSensitivities,
+    zone_light: &SpectralIrradiance,
+    main: (f64, f64),
+    subjects: &[ResolvedSubject],
+) -> Result<Vec<SubjectSignal>> {
+    let light = zone_light.to_relative();
+    let raw_g = raw_of_light(camera, &light)[1];
+    let y = xyz_sums(light.values(), Observer::cie1931_2deg()).y;
+    if raw_g > DARK && y > DARK && light.check_colorimetric("zone").is_ok() {
+        let scene = SceneResponse::new(camera, &light, Observer::cie1931_2deg())?;
+        let (k_raw, k_y) = (raw_g / main.0, y / main.1);
+        Ok(subjects
+            .iter()
+            .map(|s| {
+                let sig = scene.subject(&s.reflectance);
+                SubjectSignal {
+                    raw_rgb: sig.raw_rgb.map(|v| v * k_raw),
+                    xyz: sig.xyz.scaled(k_y),
+                }
+            })
+            .collect())
+    } else {
+        Ok(subjects
+            .iter()
+            .map(|_| SubjectSignal {
+                raw_rgb: [0.0; 3],
+                xyz: lampwright_color::Xyz::default(),
+            })
+            .collect())
+    }
+}
+
 impl CameraStage {
-    /// Set the camera up under the main zone's light.
+    /// Set the camera up for the frame: pipeline (matrix, eye adaptation)
+    /// under the main zone's light (`zone_lights[0]`), and one white balance
+    /// for the whole frame. Automatic white balance (grey world, brightest
+    /// neutral) is estimated from every subject in every zone, each at its
+    /// zone's exposure, as a camera meters the whole frame; a grey card is
+    /// read where the key light is, in the main zone.
+    ///
+    /// `camera` and `quality` are the plan's camera and its quality figures;
+    /// `pipelines` keeps pipelines between evaluations (pass an empty list
+    /// to set up afresh).
     pub fn new(
         plan: &Plan,
-        main_light: &SpectralIrradiance,
+        camera: &CameraSensitivities,
+        quality: CameraQuality,
+        zone_lights: &[SpectralIrradiance],
         subjects: &[ResolvedSubject],
+        pipelines: &mut Vec<PipelineEntry>,
     ) -> Result<CameraStage> {
-        let camera = resolve::camera_sensitivities(plan, &plan.camera.camera)?;
         let settings = camera_settings(plan);
-        let light = main_light.to_relative();
-        let main_raw_g = raw_of_light(&camera, &light)[1];
-        let main_y = xyz_sums(light.values(), Observer::cie1931_2deg()).y;
         let channels = camera.channels();
         let mut figures = CameraFigures {
             name: camera.name.clone(),
             sensitivities: [0, 1, 2].map(|i| peak_normalised(channels[i].values())),
-            luther_residual: luther_residual(&camera)?,
-            mu_factor: vora_trussell_mu(&camera)?,
+            luther_residual: quality.luther_residual,
+            mu_factor: quality.mu_factor,
             wb_gains: [1.0; 3],
             wb_cct_k: None,
             matrix: [[0.0; 3]; 3],
         };
-        let pipeline = if main_raw_g > DARK
-            && main_y > DARK
-            && light.check_colorimetric("the main zone").is_ok()
-        {
-            let p = CameraPipeline::new(&camera, &settings, &light, TrainingSet::standard()?)?;
-            let reflectances: Vec<_> = subjects.iter().map(|s| s.reflectance.clone()).collect();
-            let comparison = p.compare(&reflectances)?;
-            let g = comparison.white_balance.gains;
-            figures.wb_gains = [g.red, g.green, g.blue];
-            figures.wb_cct_k = match settings.white_balance {
-                WhiteBalance::Kelvin { cct_k } => Some(cct_k),
-                _ => comparison.estimated_cct_k,
-            };
-            let rows = comparison.correction.rows();
-            if rows.len() == 3 && rows.iter().all(|r| r.len() == 3) {
-                figures.matrix = [0, 1, 2].map(|i| [rows[i][0], rows[i][1], rows[i][2]]);
-            }
-            Some(p)
-        } else {
-            None
+        let Some(main_light) = zone_lights.first() else {
+            return Ok(CameraStage {
+                pipeline: None,
+                white_balance: None,
+                zone_signals: Vec::new(),
+                figures,
+            });
         };
+        let light = main_light.to_relative();
+        let main_raw_g = raw_of_light(camera, &light)[1];
+        let main_y = xyz_sums(light.values(), Observer::cie1931_2deg()).y;
+        if !(main_raw_g > DARK
+            && main_y > DARK
+            && light.check_colorimetric("the main zone").is_ok())
+        {
+            return Ok(CameraStage {
+                pipeline: None,
+                white_balance: None,
+                zone_signals: vec![Vec::new(); zone_lights.len()],
+                figures,
+            });
+        }
+        let cached = pipelines.iter().position(|e| {
+            e.camera == plan.camera.camera
+                && e.settings == settings
+                && e.light.as_slice() == light.values().as_slice()
+        });
+        let pipeline = if let Some(i) = cached {
+            pipelines[i].pipeline.clone()
+        } else {
+            let p = CameraPipeline::new(camera, &settings, &light, TrainingSet::standard()?)?;
+            if pipelines.len() >= PIPELINES_KEPT {
+                pipelines.remove(0);
+            }
+            pipelines.push(PipelineEntry {
+                camera: plan.camera.camera.clone(),
+                settings,
+                light: light.values().to_vec(),
+                pipeline: p.clone(),
+            });
+            p
+        };
+        let zone_signals = zone_lights
+            .iter()
+            .map(|z| zone_signals(camera, z, (main_raw_g, main_y), subjects))
+            .collect::<Result<Vec<_>>>()?;
+        let white_balance = if matches!(settings.white_balance, WhiteBalance::GreyCard { .. }) {
+            pipeline.white_balance_for(&zone_signals[0])?
+        } else {
+            let frame: Vec<SubjectSignal> = zone_signals.iter().flatten().copied().collect();
+            pipeline.white_balance_for(&frame)?
+        };
+        let main = pipeline.compare_signals_balanced(&zone_signals[0], white_balance)?;
+        let g = white_balance.gains;
+        figures.wb_gains = [g.red, g.green, g.blue];
+        figures.wb_cct_k = match settings.white_balance {
+            WhiteBalance::Kelvin { cct_k } => Some(cct_k),
+            _ => main.estimated_cct_k,
+        };
+        let rows = main.correction.rows();
+        if rows.len() == 3 && rows.iter().all(|r| r.len() == 3) {
+            figures.matrix = [0, 1, 2].map(|i| [rows[i][0], rows[i][1], rows[i][2]]);
+        }
         Ok(CameraStage {
-            camera,
-            pipeline,
-            main_raw_g,
-            main_y,
+            pipeline: Some(pipeline),
+            white_balance: Some(white_balance),
+            zone_signals,
             figures,
         })
     }
@@ -151,15 +269,21 @@ impl CameraStage {
         &self.figures
     }
 
-    /// Render every subject under a zone's light.
+    /// Render every subject in zone `zone` (index into the lights the stage
+    /// was set up with); look for camera metamers among them when `metamers`.
     pub fn render(
         &self,
         plan: &Plan,
-        zone_light: &SpectralIrradiance,
+        zone: usize,
         subjects: &[ResolvedSubject],
+        metamers: bool,
         warnings: &mut Vec<String>,
     ) -> Result<Rendered> {
-        let Some(pipeline) = &self.pipeline else {
+        let (Some(pipeline), Some(white_balance), Some(signals)) = (
+            &self.pipeline,
+            self.white_balance,
+            self.zone_signals.get(zone),
+        ) else {
             return Ok(Rendered {
                 subjects: subjects
                     .iter()
@@ -169,33 +293,7 @@ impl CameraStage {
                 metamers: Vec::new(),
             });
         };
-        let light = zone_light.to_relative();
-        let raw_g = raw_of_light(&self.camera, &light)[1];
-        let y = xyz_sums(light.values(), Observer::cie1931_2deg()).y;
-        let signals: Vec<SubjectSignal> =
-            if raw_g > DARK && y > DARK && light.check_colorimetric("zone").is_ok() {
-                let scene = SceneResponse::new(&self.camera, &light, Observer::cie1931_2deg())?;
-                let (k_raw, k_y) = (raw_g / self.main_raw_g, y / self.main_y);
-                subjects
-                    .iter()
-                    .map(|s| {
-                        let sig = scene.subject(&s.reflectance);
-                        SubjectSignal {
-                            raw_rgb: sig.raw_rgb.map(|v| v * k_raw),
-                            xyz: sig.xyz.scaled(k_y),
-                        }
-                    })
-                    .collect()
-            } else {
-                subjects
-                    .iter()
-                    .map(|_| SubjectSignal {
-                        raw_rgb: [0.0; 3],
-                        xyz: lampwright_color::Xyz::default(),
-                    })
-                    .collect()
-            };
-        let comparison = pipeline.compare_signals(&signals)?;
+        let comparison = pipeline.compare_signals_balanced(signals, white_balance)?;
         let as_lit = plan.viewing.adaptation == Adaptation::AsLit;
         let results: Vec<SubjectResult> = comparison
             .subjects
@@ -206,6 +304,12 @@ impl CameraStage {
             .collect();
         if results.iter().any(|r| !r.de2000.is_finite()) {
             warnings.push("a subject's colour difference could not be computed".into());
+        }
+        if !metamers {
+            return Ok(Rendered {
+                subjects: results,
+                metamers: Vec::new(),
+            });
         }
         let m = camera_metamers(&comparison.subjects);
         let name = |i: usize| subjects.get(i).map_or_else(String::new, |s| s.name.clone());
@@ -245,7 +349,11 @@ fn result(
     } else {
         (c.eye_lab, c.eye_display)
     };
-    let de = lampwright_color::delta_e::delta_e_ciede2000(eye_lab, c.camera_lab);
+    let de = if as_lit {
+        lampwright_color::delta_e::delta_e_ciede2000(eye_lab, c.camera_lab)
+    } else {
+        c.delta_e_ciede2000
+    };
     SubjectResult {
         index,
         name: s.name.clone(),

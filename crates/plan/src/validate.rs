@@ -235,6 +235,12 @@ fn check_zones(plan: &Plan, out: &mut Issues) {
                 format!("{who}: id {} is used by another zone", z.id),
             );
         }
+        out.number(
+            &format!("{f}.weight"),
+            &format!("{who}: weight"),
+            z.weight,
+            0.0,
+        );
         if z.reach.is_empty() {
             out.warning(
                 format!("{f}.reach"),

@@ -329,6 +329,7 @@ fn two_zone_plan() -> Plan {
                         level: ZoneLevel::Stops(-2.0),
                     },
                 ],
+                weight: 1.0,
             },
             Zone {
                 id: 2,
@@ -337,6 +338,7 @@ fn two_zone_plan() -> Plan {
                     source: 2,
                     level: ZoneLevel::AsSource,
                 }],
+                weight: 1.0,
             },
         ],
         subjects: subjects(&["grey-card-18", "skin-medium-olive"]),
@@ -388,6 +390,65 @@ fn the_key_side_is_brought_to_the_shadow_sides_white() {
         .unwrap_err()
         .to_string();
     assert!(err.contains("Hallway") && err.contains("Key side"), "{err}");
+}
+
+/// Subject-weighted mean CIEDE2000 of one zone, straight from an evaluation.
+fn zone_mean(plan: &Plan, e: &lampwright_plan::Evaluation, zone: usize) -> f64 {
+    let (mut sum, mut w) = (0.0, 0.0);
+    for (r, entry) in e.zones[zone].subjects.iter().zip(&plan.subjects) {
+        sum += entry.weight * r.de2000;
+        w += entry.weight;
+    }
+    sum / w
+}
+
+#[test]
+fn the_fidelity_goal_weights_zones() {
+    // The goal's cost is the mean over zones weighted by the plan's zone
+    // weights (and subject weights within each zone), recomputed here from
+    // the evaluation itself.
+    let mut plan = two_zone_plan();
+    plan.camera.white_balance = lampwright_plan::WhiteBalanceSetting::AutoGreyWorld;
+    let goal = Goal::Fidelity(FidelityAggregate::WeightedMean);
+    let e = evaluate(&plan).unwrap();
+    let (key, shadow) = (zone_mean(&plan, &e, 0), zone_mean(&plan, &e, 1));
+    assert!((key - shadow).abs() > 0.1, "zones differ: {key} {shadow}");
+    for (weights, want) in [
+        ([1.0, 0.0], key),
+        ([0.0, 1.0], shadow),
+        ([1.0, 3.0], 0.25 * key + 0.75 * shadow),
+        // No zone weighted: the main zone alone.
+        ([0.0, 0.0], key),
+    ] {
+        plan.zones[0].weight = weights[0];
+        plan.zones[1].weight = weights[1];
+        let advice = advise(&plan, &goal, &AdvisorOptions::default()).unwrap();
+        let got = advice.before.goal_cost.unwrap();
+        assert!((got - want).abs() < 1e-9, "{weights:?}: {got} vs {want}");
+    }
+    // With 1 nm knots the search model's frame (every zone metered for the
+    // grey-world white balance, each zone weighted) predicts the evaluation.
+    plan.zones[0].weight = 1.0;
+    plan.zones[1].weight = 2.0;
+    let options = AdvisorOptions {
+        knot_step_nm: 1,
+        ..AdvisorOptions::default()
+    };
+    let advice = advise(&plan, &goal, &options).unwrap();
+    assert!(!advice.suggestions.is_empty());
+    for s in &advice.suggestions {
+        let from_eval = goal.ranking_total(
+            s.after.goal_cost.unwrap(),
+            s.after.stops_lost.unwrap(),
+            s.moves.len(),
+        );
+        assert!(
+            (s.predicted_ranking - from_eval).abs() < 1e-6,
+            "predicted {} vs evaluated {from_eval} for {}",
+            s.predicted_ranking,
+            s.sentence()
+        );
+    }
 }
 
 #[test]

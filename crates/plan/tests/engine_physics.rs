@@ -171,6 +171,7 @@ fn one_zone_equals_no_zones() {
                 level: ZoneLevel::AsSource,
             },
         ],
+        weight: 1.0,
     }];
     let a = evaluate(&base).unwrap();
     let b = evaluate(&zoned).unwrap();
@@ -204,6 +205,7 @@ fn source_only_in_shadow_zone_leaves_key_side_alone() {
             source: 1,
             level: ZoneLevel::AsSource,
         }],
+        weight: 1.0,
     };
     let shadow = Zone {
         id: 2,
@@ -218,6 +220,7 @@ fn source_only_in_shadow_zone_leaves_key_side_alone() {
                 level: ZoneLevel::AsSource,
             },
         ],
+        weight: 1.0,
     };
     plan.zones = vec![key_zone.clone()];
     let alone = evaluate(&plan).unwrap();
@@ -256,4 +259,109 @@ fn perfect_white_under_grey_card_balance_is_neutral() {
     for lab in [white.eye_lab, white.camera_lab] {
         assert!(lab[1].abs() < 0.5 && lab[2].abs() < 0.5, "{lab:?}");
     }
+}
+
+fn key_and_shadow(plan: &mut Plan, shadow_sources: Vec<ZoneReach>) {
+    plan.zones = vec![
+        Zone {
+            id: 1,
+            name: "Key side".into(),
+            reach: vec![ZoneReach {
+                source: 1,
+                level: ZoneLevel::AsSource,
+            }],
+            weight: 1.0,
+        },
+        Zone {
+            id: 2,
+            name: "Shadow side".into(),
+            reach: shadow_sources,
+            weight: 1.0,
+        },
+    ];
+}
+
+#[test]
+fn automatic_white_balance_meters_the_whole_frame() {
+    use lampwright_plan::WhiteBalanceSetting;
+    // A camera sets one white balance for the frame; in its automatic modes it
+    // meters every part of it. Grey world (the mean raw signal is taken as
+    // neutral) over a frame whose shadow side repeats the key side's light
+    // exactly must give the key side's own gains (the mean of a set repeated
+    // is its mean); a sodium-lit shadow side must pull the estimate warmer
+    // (less red gain relative to blue), so key-side subjects shift.
+    let mut plan = plan_with(vec![
+        source(1, "Key", LampRef::Daylight { cct_k: 5600.0 }, 1000.0),
+        Source {
+            role: SourceRole::Ambient,
+            ..source(2, "Street", LampRef::Library("hps-street".into()), 1000.0)
+        },
+    ]);
+    plan.subjects.push(SubjectEntry {
+        subject: SubjectRef::Library("skin-tan".into()),
+        ..SubjectEntry::default()
+    });
+    for wb in [
+        WhiteBalanceSetting::AutoGreyWorld,
+        WhiteBalanceSetting::AutoBrightestNeutral,
+    ] {
+        plan.camera.white_balance = wb.clone();
+        key_and_shadow(&mut plan, vec![]);
+        plan.zones.truncate(1);
+        let alone = evaluate(&plan).unwrap();
+        key_and_shadow(
+            &mut plan,
+            vec![ZoneReach {
+                source: 1,
+                level: ZoneLevel::AsSource,
+            }],
+        );
+        let same = evaluate(&plan).unwrap();
+        for (a, b) in alone.camera.wb_gains.iter().zip(&same.camera.wb_gains) {
+            assert!((a - b).abs() < 1e-12, "{wb:?}: {a} vs {b}");
+        }
+        key_and_shadow(
+            &mut plan,
+            vec![ZoneReach {
+                source: 2,
+                level: ZoneLevel::AsSource,
+            }],
+        );
+        let mixed = evaluate(&plan).unwrap();
+        let ratio = |g: [f64; 3]| g[0] / g[2];
+        if wb == WhiteBalanceSetting::AutoGreyWorld {
+            assert!(
+                ratio(mixed.camera.wb_gains) < 0.95 * ratio(alone.camera.wb_gains),
+                "grey world: {:?} vs {:?}",
+                mixed.camera.wb_gains,
+                alone.camera.wb_gains
+            );
+            // The key side's light is the same; its subjects render differently.
+            assert_eq!(alone.zones[0].light, mixed.zones[0].light);
+            assert_ne!(alone.zones[0].subjects, mixed.zones[0].subjects);
+        }
+    }
+    // A grey card is read on the key side: the sodium shadow side changes nothing there.
+    plan.camera.white_balance = WhiteBalanceSetting::GreyCard;
+    key_and_shadow(&mut plan, vec![]);
+    plan.zones.truncate(1);
+    let alone = evaluate(&plan).unwrap();
+    key_and_shadow(
+        &mut plan,
+        vec![ZoneReach {
+            source: 2,
+            level: ZoneLevel::AsSource,
+        }],
+    );
+    let mixed = evaluate(&plan).unwrap();
+    // Identical computations: the gains must be the same numbers.
+    assert!(
+        alone
+            .camera
+            .wb_gains
+            .iter()
+            .zip(&mixed.camera.wb_gains)
+            .all(|(a, b)| a.to_bits() == b.to_bits())
+    );
+    assert_eq!(alone.zones[0].subjects, mixed.zones[0].subjects);
 }

@@ -97,6 +97,7 @@ fn everything_plan() -> Plan {
                     },
                 },
             ],
+            weight: 1.0,
         },
         Zone {
             id: 2,
@@ -105,6 +106,7 @@ fn everything_plan() -> Plan {
                 source: 101,
                 level: ZoneLevel::AsSource,
             }],
+            weight: 1.0,
         },
     ];
     let wl: Vec<f64> = (0..=80).map(|i| 380.0 + 5.0 * f64::from(i)).collect();

@@ -89,6 +89,7 @@ fn zone(num: BoxedStrategy<f64>) -> impl Strategy<Value = Zone> {
                 .into_iter()
                 .map(|(source, level)| ZoneReach { source, level })
                 .collect(),
+            weight: 1.0,
         })
 }
 

@@ -116,6 +116,22 @@ fn zone_card(ui: &mut Ui, cx: &mut PanelCtx<'_>, zone: &Zone, figures: Option<&Z
                     if ui.button("Remove zone").clicked() {
                         cx.push(Command::RemoveZone(zone.id));
                     }
+                    let mut weight = zone.weight;
+                    let drag = ui
+                        .add(
+                            egui::DragValue::new(&mut weight)
+                                .range(0.0..=10.0)
+                                .speed(0.05)
+                                .max_decimals(2),
+                        )
+                        .accessible_name("Zone fidelity weight")
+                        .on_hover_text(
+                            "How much this zone counts when the advisor improves camera fidelity (0 leaves it out)",
+                        );
+                    if drag.changed() {
+                        cx.push(Command::ZoneWeight(zone.id, weight));
+                    }
+                    ui.label(theme::caption("Fidelity weight"));
                 });
             });
             if let Some(f) = figures {

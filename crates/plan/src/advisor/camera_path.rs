@@ -221,39 +221,53 @@ impl FastCamera {
         })
     }
 
-    /// CIEDE2000 eye versus camera of each subject under the main zone's mix.
+    /// CIEDE2000 eye versus camera of each subject in each zone, one row of
+    /// subjects per zone (main zone first), as the evaluation renders them:
+    /// one white balance and one matrix for the frame.
     ///
-    /// `white` holds the mix's `[X, Y, Z, R, G, B]` for the perfect white and
-    /// `subjects` six such numbers per subject (any common scale). For a scene
-    /// profile, `light` gives the mix's spectrum and `light_key` identifies it
-    /// for the cache of fits. `None` when the light is dark or a step fails.
+    /// Each entry of `zones` holds the zone mix's `[X, Y, Z, R, G, B]` for the
+    /// perfect white, then six such numbers per subject, all on one common
+    /// scale. Signals are normalised by the main zone's white, so other zones
+    /// keep their exposure relative to it. Automatic white balance meters the
+    /// subjects of every zone; a grey card is read in the main zone. For a
+    /// scene profile, `light` gives the main mix's spectrum and `light_key`
+    /// identifies it for the cache of fits. `None` when the main light is dark
+    /// or a step fails.
     pub fn delta_e(
         &mut self,
         option: usize,
-        white: &[f64],
-        subjects: &[f64],
+        zones: &[Vec<f64>],
         light_key: u64,
         light: &dyn Fn() -> Option<RelativeSpd>,
         out: &mut Vec<f64>,
     ) -> Option<()> {
         out.clear();
-        let (wy, wg) = (white[1], white[4]);
+        let main = zones.first()?;
+        let (wy, wg) = (*main.get(1)?, *main.get(4)?);
         if !(wy > 0.0 && wg > 0.0 && wy.is_finite() && wg.is_finite()) {
             return None;
         }
-        let white_xyz = Xyz::new(white[0] / wy, 1.0, white[2] / wy);
-        let white_raw = [white[3] / wg, 1.0, white[5] / wg];
+        let white_xyz = Xyz::new(main[0] / wy, 1.0, main[2] / wy);
+        let white_raw = [main[3] / wg, 1.0, main[5] / wg];
         self.signals.clear();
-        for s in subjects.chunks_exact(6) {
-            self.signals.push(SubjectSignal {
-                raw_rgb: [s[3] / wg, s[4] / wg, s[5] / wg],
-                xyz: Xyz::new(s[0] / wy, s[1] / wy, s[2] / wy),
-            });
+        for zone in zones {
+            for s in zone.get(6..)?.chunks_exact(6) {
+                self.signals.push(SubjectSignal {
+                    raw_rgb: [s[3] / wg, s[4] / wg, s[5] / wg],
+                    xyz: Xyz::new(s[0] / wy, s[1] / wy, s[2] / wy),
+                });
+            }
         }
+        let per_zone = main.len().saturating_sub(6) / 6;
+        let metered = if matches!(self.wb[option], WhiteBalance::GreyCard { .. }) {
+            &self.signals[..per_zone.min(self.signals.len())]
+        } else {
+            &self.signals[..]
+        };
         let gains = match self.fixed_gains[option] {
             Some(g) => g,
             None => {
-                resolve_white_balance(&self.wb[option], &self.camera, white_raw, &self.signals)
+                resolve_white_balance(&self.wb[option], &self.camera, white_raw, metered)
                     .ok()?
                     .gains
             }

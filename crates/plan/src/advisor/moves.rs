@@ -540,6 +540,7 @@ mod tests {
                         level: ZoneLevel::Stops(-1.0),
                     },
                 ],
+                weight: 1.0,
             }],
             ..Plan::default()
         };

@@ -110,21 +110,57 @@ pub(crate) fn subject_weights(plan: &Plan) -> Vec<f64> {
         .collect()
 }
 
-/// Weighted mean and largest of `de` (plan order) over included subjects.
+/// Zone weights in the fidelity goal: the plan's zone weights (negative or
+/// non-finite ones count as 0); one zone of weight 1 when the plan has no
+/// zones; the main zone alone when no zone has a positive weight.
+pub(crate) fn zone_weights(plan: &Plan) -> Vec<f64> {
+    let mut w: Vec<f64> = plan
+        .zones
+        .iter()
+        .map(|z| {
+            if z.weight.is_finite() && z.weight > 0.0 {
+                z.weight
+            } else {
+                0.0
+            }
+        })
+        .collect();
+    if w.is_empty() {
+        w.push(1.0);
+    }
+    if w.iter().all(|x| *x == 0.0) {
+        w[0] = 1.0;
+    }
+    w
+}
+
+/// Weighted mean and largest of `de` over included subjects in zones of
+/// positive weight. `de` holds one row of subjects (plan order) per zone; a
+/// subject in a zone counts with its weight times the zone's.
 pub(crate) fn fidelity_stats(
     plan: &Plan,
     weights: &[f64],
+    zone_weights: &[f64],
     de: &[f64],
 ) -> (Option<f64>, Option<f64>) {
+    let n = plan.subjects.len();
     let mut sum = 0.0;
     let mut wsum = 0.0;
     let mut max: Option<f64> = None;
-    for ((d, w), entry) in de.iter().zip(weights).zip(&plan.subjects) {
-        if entry.included {
-            max = Some(max.map_or(*d, |m| m.max(*d)));
+    if n == 0 {
+        return (None, None);
+    }
+    for (row, zw) in de.chunks_exact(n).zip(zone_weights) {
+        if *zw <= 0.0 {
+            continue;
         }
-        sum += w * d;
-        wsum += w;
+        for ((d, w), entry) in row.iter().zip(weights).zip(&plan.subjects) {
+            if entry.included {
+                max = Some(max.map_or(*d, |m| m.max(*d)));
+            }
+            sum += zw * w * d;
+            wsum += zw * w;
+        }
     }
     let mean = (wsum > 0.0).then(|| sum / wsum);
     (mean, max)
@@ -138,8 +174,13 @@ pub(crate) fn inputs_from_evaluation(
     eval: &Evaluation,
 ) -> GoalInputs {
     let weights = subject_weights(plan);
-    let de: Vec<f64> = eval.subjects.iter().map(|s| s.de2000).collect();
-    let (weighted_mean_de2000, max_de2000) = fidelity_stats(plan, &weights, &de);
+    let de: Vec<f64> = eval
+        .zones
+        .iter()
+        .flat_map(|z| z.subjects.iter().map(|s| s.de2000))
+        .collect();
+    let (weighted_mean_de2000, max_de2000) =
+        fidelity_stats(plan, &weights, &zone_weights(plan), &de);
     let mut inputs = GoalInputs {
         weighted_mean_de2000,
         max_de2000,
@@ -183,6 +224,9 @@ pub(crate) struct ModelScorer<'a> {
     quality: Option<FastQuality>,
     base_lux: f64,
     weights: Vec<f64>,
+    zone_weights: Vec<f64>,
+    /// Every zone's mix of the candidate, for the camera (frame white balance).
+    zone_bufs: Vec<Vec<f64>>,
     projections: Vec<Vec<Option<Rc<Projected>>>>,
     prefixes: Vec<Vec<Option<Rc<Projected>>>>,
     transmissions: Vec<Vec<Option<f64>>>,
@@ -214,6 +258,8 @@ impl<'a> ModelScorer<'a> {
             quality,
             base_lux: 0.0,
             weights: subject_weights(plan),
+            zone_weights: zone_weights(plan),
+            zone_bufs: Vec::new(),
             projections: vec![Vec::new(); spaces.len()],
             prefixes: vec![Vec::new(); spaces.len()],
             transmissions: vec![Vec::new(); spaces.len()],
@@ -361,15 +407,27 @@ impl<'a> ModelScorer<'a> {
         match self.goal {
             Goal::White(_) => {}
             Goal::Fidelity(_) => {
-                let buf = std::mem::take(&mut self.buf);
+                // The camera meters the whole frame: every zone's mix, main first.
+                let zones = self.model.zone_coefficients.len();
+                let mut bufs = std::mem::take(&mut self.zone_bufs);
+                bufs.resize_with(zones, Vec::new);
+                for (z, b) in bufs.iter_mut().enumerate() {
+                    if z == 0 {
+                        b.clone_from(&self.buf);
+                    } else {
+                        self.zone_mix(z, state, stacks);
+                        b.clone_from(&self.buf);
+                    }
+                }
                 let mut de = std::mem::take(&mut self.de);
                 let mut camera = self.camera.take()?;
                 let key = light_key(&state.sources);
                 let light = || self.spectrum(0, state, stacks);
-                let ok = camera.delta_e(state.camera, &buf[..6], &buf[6..], key, &light, &mut de);
+                let ok = camera.delta_e(state.camera, &bufs, key, &light, &mut de);
                 self.camera = Some(camera);
-                self.buf = buf;
-                let stats = ok.map(|()| fidelity_stats(self.plan, &self.weights, &de));
+                self.zone_bufs = bufs;
+                let stats =
+                    ok.map(|()| fidelity_stats(self.plan, &self.weights, &self.zone_weights, &de));
                 self.de = de;
                 let (mean, max) = stats?;
                 inputs.weighted_mean_de2000 = mean;
