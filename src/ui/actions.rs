@@ -235,6 +235,8 @@ impl App {
             Action::Undo => self.undo(),
             Action::Redo => self.redo(),
             Action::Quit | Action::ForceQuit => {
+                // Reached with a clean plan or after "Discard changes".
+                self.finish_autosave();
                 self.allow_close = true;
                 ctx.send_viewport_cmd(egui::ViewportCommand::Close);
             }
@@ -259,6 +261,7 @@ impl App {
         match upstream::save_plan(&path, &self.plan) {
             Ok(()) => {
                 self.saved = self.plan.clone();
+                self.force_dirty = false;
                 self.prefs.remember_file(&path);
                 self.notify(format!("Saved {}", path.display()));
                 self.path = Some(path);

@@ -18,7 +18,7 @@ use super::{compare, panels, plots, readouts, theme, upstream};
 use egui::{Key, KeyboardShortcut, Modifiers};
 use lampwright_plan::{Evaluation, Plan};
 use std::path::{Path, PathBuf};
-use std::time::Instant;
+use std::time::{Duration, Instant};
 
 /// How the window starts.
 #[derive(Debug, Clone, Default)]
@@ -31,11 +31,18 @@ pub struct StartOptions {
     pub system_dialogs: bool,
     /// Print the time to the first frame on standard error.
     pub log_first_frame: bool,
+    /// Folder of the autosaves, where plans left by a crash are looked for
+    /// at start (`None`: no autosave).
+    pub recovery_dir: Option<PathBuf>,
+    /// How long unsaved changes wait before they are autosaved (zero: at the
+    /// end of the frame that made them).
+    pub autosave_interval: Duration,
 }
 
 impl StartOptions {
-    /// Options for a normal start, reading `LAMPWRIGHT_VIEW` (start-up view)
-    /// and `LAMPWRIGHT_LOG_FIRST_FRAME` (print the first-frame time).
+    /// Options for a normal start, reading `LAMPWRIGHT_VIEW` (start-up view),
+    /// `LAMPWRIGHT_LOG_FIRST_FRAME` (print the first-frame time) and
+    /// `LAMPWRIGHT_DATA_DIR` (where autosaves go, see [`super::recovery`]).
     #[must_use]
     pub fn from_env(plan_path: Option<PathBuf>) -> StartOptions {
         StartOptions {
@@ -43,10 +50,13 @@ impl StartOptions {
             start_view: std::env::var("LAMPWRIGHT_VIEW").ok(),
             system_dialogs: std::env::var_os("LAMPWRIGHT_NO_SYSTEM_DIALOGS").is_none(),
             log_first_frame: std::env::var_os("LAMPWRIGHT_LOG_FIRST_FRAME").is_some(),
+            recovery_dir: super::recovery::default_dir(),
+            autosave_interval: super::recovery::AUTOSAVE_INTERVAL,
         }
     }
 
-    /// Options for headless tests: demo plan, in-window file browser only.
+    /// Options for headless tests: demo plan, in-window file browser only,
+    /// no autosave.
     #[must_use]
     pub fn headless() -> StartOptions {
         StartOptions::default()
@@ -64,13 +74,19 @@ pub struct Notice {
 
 /// The Lampwright window.
 // The flags are independent (closing allowed, dialog choice, first-frame
-// log, text focus); folding them into an enum would not say more.
+// log, text focus, restored unsaved); folding them into an enum would not say more.
 #[allow(clippy::struct_excessive_bools)]
 pub struct App {
     pub(super) plan: Plan,
     pub(super) path: Option<PathBuf>,
     /// The plan as last opened or saved, to know whether there are unsaved changes.
     pub(super) saved: Plan,
+    /// Unsaved whatever `saved` says (a plan restored from an autosave).
+    pub(super) force_dirty: bool,
+    /// This window's autosave slot.
+    pub(super) autosave: Option<super::recovery::Autosaver>,
+    /// Plans left by windows that closed without saving, waiting for an answer.
+    pub(super) recovered: Vec<super::recovery::Recovered>,
     pub(super) history: History,
     pub(super) evaluator: Evaluator,
     pub(super) prefs: Prefs,
@@ -122,6 +138,9 @@ impl App {
         if let Some(path) = options.plan_path {
             app.open_path(&path);
         }
+        if let Some(dir) = &options.recovery_dir {
+            app.start_recovery(dir, options.autosave_interval);
+        }
         app
     }
 
@@ -131,6 +150,9 @@ impl App {
         let selected = (!plan.subjects.is_empty()).then_some(0);
         let mut app = App {
             saved: plan.clone(),
+            force_dirty: false,
+            autosave: None,
+            recovered: Vec::new(),
             plan,
             path: None,
             history: History::default(),
@@ -193,13 +215,19 @@ impl App {
     /// The plan has changes not saved to its file.
     #[must_use]
     pub fn is_dirty(&self) -> bool {
-        self.plan != self.saved
+        self.force_dirty || self.plan != self.saved
     }
 
     /// Number of undo steps available.
     #[must_use]
     pub fn undo_len(&self) -> usize {
         self.history.undo_len()
+    }
+
+    /// Number of redo steps available.
+    #[must_use]
+    pub fn redo_len(&self) -> usize {
+        self.history.redo_len()
     }
 
     /// Time from process start to the end of the first frame, ms.
@@ -251,6 +279,7 @@ impl App {
     /// the history starts again).
     pub(super) fn replace_plan(&mut self, plan: Plan, path: Option<PathBuf>) {
         self.saved = plan.clone();
+        self.force_dirty = false;
         self.plan = plan;
         self.path = path;
         self.history.clear();
@@ -362,6 +391,7 @@ impl App {
     }
 
     fn draw(&mut self, ui: &mut egui::Ui) {
+        let dirty = self.is_dirty();
         let stale = self.evaluator.is_stale();
         let eval_error = self.evaluator.error().map(str::to_owned);
         let eval = self.evaluator.evaluation();
@@ -399,7 +429,7 @@ impl App {
                 ui,
                 &self.notices,
                 self.path.as_deref(),
-                self.plan != self.saved,
+                dirty,
                 &self.evaluator,
             );
         });
@@ -454,6 +484,7 @@ impl App {
         if !pointer_down && !self.text_focus {
             self.history.seal();
         }
+        self.autosave_frame(&ctx);
         self.update_title(&ctx);
         if self.first_frame_ms.is_none() {
             let ms = self.started.elapsed().as_secs_f64() * 1000.0;
@@ -475,6 +506,15 @@ impl eframe::App for App {
 
     fn save(&mut self, storage: &mut dyn eframe::Storage) {
         eframe::set_value(storage, prefs::STORAGE_KEY, &self.prefs);
+    }
+
+    fn on_exit(&mut self, _gl: Option<&eframe::glow::Context>) {
+        // Closing with unsaved changes happens only when the user chose to
+        // discard them (which already removed the autosave) or when the
+        // system ends the window: then the autosave stays for the next start.
+        if !self.is_dirty() {
+            self.finish_autosave();
+        }
     }
 
     fn clear_color(&self, _visuals: &egui::Visuals) -> [f32; 4] {

@@ -1,5 +1,6 @@
 //! Modal dialogs: unsaved changes, the in-window file browser (used when the
-//! desktop has no file dialog), and the question of what a dropped CSV is.
+//! desktop has no file dialog), the question of what a dropped CSV is, and
+//! the offer to restore a plan autosaved before a crash.
 
 use super::actions::Action;
 use super::app::App;
@@ -241,6 +242,8 @@ pub enum Dialog {
     Browse(Browser),
     /// What is this CSV?
     CsvKind(CsvImport),
+    /// Restore or discard the first of the app's recovered plans.
+    Recover,
 }
 
 /// What the user answered in a dialog.
@@ -250,6 +253,8 @@ enum Outcome {
     Run(Action),
     SaveThen(Action),
     Import(CsvImport),
+    Restore,
+    DiscardRecovered,
 }
 
 /// Show the open dialog, if any, and act on the answer.
@@ -262,6 +267,10 @@ pub fn show(app: &mut App, ctx: &egui::Context) {
         Dialog::Unsaved { then } => unsaved(ctx, then),
         Dialog::Browse(browser) => browse(ctx, browser, &recent),
         Dialog::CsvKind(import) => csv_kind(ctx, import),
+        Dialog::Recover => match app.recovered.first() {
+            Some(found) => recover(ctx, found),
+            None => Outcome::Close,
+        },
     };
     match outcome {
         Outcome::Keep => app.dialog = Some(dialog),
@@ -286,7 +295,53 @@ pub fn show(app: &mut App, ctx: &egui::Context) {
                 app.dialog = Some(Dialog::CsvKind(import));
             }
         }
+        Outcome::Restore => app.restore_recovered(),
+        Outcome::DiscardRecovered => app.discard_recovered(),
     }
+}
+
+/// The offer to restore a plan autosaved by a window that closed without
+/// saving. It stays until answered: both answers keep the plan somewhere.
+fn recover(ctx: &egui::Context, found: &super::recovery::Recovered) -> Outcome {
+    let mut outcome = Outcome::Keep;
+    egui::Modal::new(egui::Id::unique("recover")).show(ctx, |ui| {
+        ui.set_width(460.0);
+        ui.heading("Restore unsaved work?");
+        ui.label(format!(
+            "Lampwright closed without saving the plan \"{}\".",
+            found.plan.name
+        ));
+        let origin = found.origin.as_ref().map_or_else(
+            || "It was never saved to a file.".to_owned(),
+            |p| format!("It belongs to {}.", p.display()),
+        );
+        ui.label(origin);
+        if let Some(when) = found.saved_at {
+            let age = super::recovery::age_text(when, std::time::SystemTime::now());
+            ui.label(theme::caption(format!("Autosaved {age}.")));
+        }
+        ui.add_space(8.0);
+        ui.horizontal(|ui| {
+            if ui
+                .button("Restore")
+                .on_hover_text("Open it with its changes unsaved; Save writes it to its file")
+                .clicked()
+            {
+                outcome = Outcome::Restore;
+            }
+            if ui
+                .button("Discard")
+                .on_hover_text(format!(
+                    "Set it aside (kept as {}.discarded)",
+                    found.plan_file().display()
+                ))
+                .clicked()
+            {
+                outcome = Outcome::DiscardRecovered;
+            }
+        });
+    });
+    outcome
 }
 
 fn unsaved(ctx: &egui::Context, then: &Action) -> Outcome {

@@ -9,6 +9,7 @@
 mod actions;
 pub mod advisor;
 pub mod app;
+mod autosave;
 pub mod catalog;
 pub mod command;
 mod compare;
@@ -22,14 +23,19 @@ mod panels;
 mod plots;
 pub mod prefs;
 mod readouts;
+pub mod recovery;
 pub mod theme;
 mod upstream;
 mod view;
 mod widgets;
 
+pub use actions::starter_plan;
 pub use app::{App, StartOptions};
 
 use std::time::Instant;
+
+/// Application id: names the window for the desktop and the data folder.
+pub const APP_ID: &str = "lampwright";
 
 /// Default window size, points.
 pub const DEFAULT_SIZE: [f32; 2] = [1440.0, 900.0];
@@ -46,9 +52,13 @@ pub fn run(options: StartOptions) -> anyhow::Result<()> {
             .with_title("Lampwright")
             .with_inner_size(DEFAULT_SIZE)
             .with_min_inner_size([900.0, 600.0])
-            .with_app_id("lampwright")
+            .with_app_id(APP_ID)
             .with_drag_and_drop(true),
         persist_window: true,
+        // LAMPWRIGHT_DATA_DIR moves the preferences along with the autosaves.
+        persistence_path: std::env::var_os(recovery::DATA_DIR_ENV)
+            .filter(|v| !v.is_empty())
+            .map(|dir| std::path::PathBuf::from(dir).join("app.ron")),
         ..eframe::NativeOptions::default()
     };
     eframe::run_native(
