@@ -5,8 +5,31 @@
 
 use lampwright_camera::CameraError;
 use lampwright_color::ColorError;
-use std::path::PathBuf;
+use std::borrow::Cow;
+use std::path::{Path, PathBuf};
 use thiserror::Error;
+
+/// User text (a name, an id, a path) as it appears inside a one-line
+/// message: control characters and line or paragraph separators become
+/// spaces, so a damaged or hand-edited name cannot break the message's line.
+#[must_use]
+pub fn one_line(text: &str) -> Cow<'_, str> {
+    let breaks = |c: char| c.is_control() || matches!(c, '\u{2028}' | '\u{2029}');
+    if text.contains(breaks) {
+        Cow::Owned(
+            text.chars()
+                .map(|c| if breaks(c) { ' ' } else { c })
+                .collect(),
+        )
+    } else {
+        Cow::Borrowed(text)
+    }
+}
+
+/// A path as it appears inside a one-line message.
+fn shown(path: &Path) -> String {
+    one_line(&path.display().to_string()).into_owned()
+}
 
 /// Result with [`PlanError`].
 pub type Result<T, E = PlanError> = std::result::Result<T, E>;
@@ -49,7 +72,7 @@ impl std::fmt::Display for LibraryKind {
 #[derive(Debug, Clone, PartialEq, Error)]
 pub enum PlanError {
     /// The operating system refused a read or write.
-    #[error("{}: {message}", path.display())]
+    #[error("{}: {}", shown(path), one_line(message))]
     Io {
         /// The file or folder.
         path: PathBuf,
@@ -57,7 +80,7 @@ pub enum PlanError {
         message: String,
     },
     /// A plan file is not well-formed or has a field of the wrong type.
-    #[error("{}: line {line}, column {column}: {message}", path.display())]
+    #[error("{}: line {line}, column {column}: {}", shown(path), one_line(message))]
     Parse {
         /// The file (or a label such as "<memory>").
         path: PathBuf,
@@ -69,7 +92,10 @@ pub enum PlanError {
         message: String,
     },
     /// A plan file is not UTF-8 text.
-    #[error("{}: not UTF-8 text (first invalid byte at line {line}, byte offset {offset}); plan files are UTF-8 RON", path.display())]
+    #[error(
+        "{}: not UTF-8 text (first invalid byte at line {line}, byte offset {offset}); plan files are UTF-8 RON",
+        shown(path)
+    )]
     NotUtf8 {
         /// The file.
         path: PathBuf,
@@ -79,7 +105,10 @@ pub enum PlanError {
         offset: usize,
     },
     /// A plan file is larger than plans may be.
-    #[error("{}: the file is {size_bytes} bytes; plan files are limited to {limit_bytes} bytes", path.display())]
+    #[error(
+        "{}: the file is {size_bytes} bytes; plan files are limited to {limit_bytes} bytes",
+        shown(path)
+    )]
     TooLarge {
         /// The file.
         path: PathBuf,
@@ -89,7 +118,10 @@ pub enum PlanError {
         limit_bytes: u64,
     },
     /// A plan file was written by a newer Lampwright, or carries a version that never existed.
-    #[error("{}: plan format version {found} is not one this Lampwright reads (it reads versions 0 to {newest}){hint}", path.display())]
+    #[error(
+        "{}: plan format version {found} is not one this Lampwright reads (it reads versions 0 to {newest}){hint}",
+        shown(path)
+    )]
     UnsupportedVersion {
         /// The file.
         path: PathBuf,
@@ -101,7 +133,10 @@ pub enum PlanError {
         hint: String,
     },
     /// A plan exceeds a structural limit (counts, lengths, nesting).
-    #[error("{field}: {what} is {found}, more than the limit of {limit}")]
+    #[error(
+        "{}: {what} is {found}, more than the limit of {limit}",
+        one_line(field)
+    )]
     Limit {
         /// Where in the plan, e.g. "sources[3].gels" or "name".
         field: String,
@@ -113,7 +148,7 @@ pub enum PlanError {
         limit: usize,
     },
     /// A plan refers to a library entry or embedded spectrum that does not exist.
-    #[error("{context}: unknown {kind} '{id}'")]
+    #[error("{}: unknown {kind} '{}'", one_line(context), one_line(id))]
     UnknownId {
         /// Where the reference is, e.g. "source 'Key'".
         context: String,
@@ -123,7 +158,7 @@ pub enum PlanError {
         id: String,
     },
     /// A value in the plan is not acceptable (non-finite, negative, inconsistent).
-    #[error("{field}: {message}")]
+    #[error("{}: {}", one_line(field), one_line(message))]
     Invalid {
         /// Where in the plan, e.g. `sources[0].level_lux` or "source 'Key'".
         field: String,
@@ -131,7 +166,7 @@ pub enum PlanError {
         message: String,
     },
     /// A colour computation failed, with the part of the plan it was for.
-    #[error("{context}: {source}")]
+    #[error("{}: {}", one_line(context), one_line(&source.to_string()))]
     ColorIn {
         /// Which part of the plan, e.g. "subject 'Tomato'".
         context: String,
@@ -139,14 +174,28 @@ pub enum PlanError {
         source: ColorError,
     },
     /// A colour computation failed.
-    #[error(transparent)]
-    Color(#[from] ColorError),
+    #[error("{}", one_line(&.0.to_string()))]
+    Color(ColorError),
     /// A camera computation failed.
-    #[error(transparent)]
-    Camera(#[from] CameraError),
+    #[error("{}", one_line(&.0.to_string()))]
+    Camera(CameraError),
     /// A plan could not be written as text (should not happen for valid plans).
-    #[error("could not write the plan as RON: {0}")]
+    #[error("could not write the plan as RON: {}", one_line(.0))]
     Serialize(String),
+}
+
+// By hand rather than `#[from]`: the message above already is the colour or
+// camera error's own (made one line), so it is not repeated as a source.
+impl From<ColorError> for PlanError {
+    fn from(e: ColorError) -> Self {
+        PlanError::Color(e)
+    }
+}
+
+impl From<CameraError> for PlanError {
+    fn from(e: CameraError) -> Self {
+        PlanError::Camera(e)
+    }
 }
 
 impl PlanError {

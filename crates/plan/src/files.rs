@@ -90,16 +90,13 @@ fn in_file(path: &Path, e: PlanError) -> PlanError {
 
 /// Messages from the parser may quote the file; keep them on one line and short.
 fn one_line(text: &str) -> String {
-    let cleaned: String = text
-        .chars()
-        .map(|c| if c.is_control() { ' ' } else { c })
-        .collect();
+    let cleaned = crate::error::one_line(text);
     if cleaned.chars().count() > 300 {
         let mut short: String = cleaned.chars().take(300).collect();
         short.push('…');
         short
     } else {
-        cleaned
+        cleaned.into_owned()
     }
 }
 

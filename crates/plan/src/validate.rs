@@ -6,7 +6,7 @@
 //! know (a dimmer on an LED is ignored, an embedded spectrum stops short of
 //! the visible range). `lampwright check` prints this list.
 
-use crate::error::PlanError;
+use crate::error::{PlanError, one_line};
 use crate::library;
 use crate::limits::{MAX_GEL_STACK, check_limits};
 use crate::model::{
@@ -59,18 +59,19 @@ struct Issues(Vec<Issue>);
 
 impl Issues {
     fn error(&mut self, field: impl Into<String>, message: impl Into<String>) {
-        self.0.push(Issue {
-            severity: Severity::Error,
-            field: field.into(),
-            message: message.into(),
-        });
+        self.push(Severity::Error, &field.into(), &message.into());
     }
 
     fn warning(&mut self, field: impl Into<String>, message: impl Into<String>) {
+        self.push(Severity::Warning, &field.into(), &message.into());
+    }
+
+    /// Names and ids from the plan are quoted in issues; keep each issue on one line.
+    fn push(&mut self, severity: Severity, field: &str, message: &str) {
         self.0.push(Issue {
-            severity: Severity::Warning,
-            field: field.into(),
-            message: message.into(),
+            severity,
+            field: one_line(field).into_owned(),
+            message: one_line(message).into_owned(),
         });
     }
 
