@@ -19,11 +19,11 @@ fn corpus() -> PathBuf {
 const REFUSED: &[(&str, &str)] = &[
     (
         "deep-nesting.ron",
-        "line 1, column 63: brackets nest more than 64 deep",
+        "line 1, column 95: brackets nest more than 64 deep",
     ),
     (
         "deep-nesting-unknown-field.ron",
-        "line 1, column 63: brackets nest more than 64 deep",
+        "line 1, column 95: brackets nest more than 64 deep",
     ),
     (
         "duplicate-field.ron",
