@@ -482,7 +482,7 @@ impl App {
         // field has focus; the next edit is a new undo step.
         let pointer_down = ctx.input(|i| i.pointer.any_down());
         if !pointer_down && !self.text_focus {
-            self.history.seal();
+            self.history.seal(&self.plan);
         }
         self.autosave_frame(&ctx);
         self.update_title(&ctx);

@@ -15,32 +15,56 @@ pub const UNDO_LIMIT: usize = 200;
 pub struct History {
     undo: Vec<Plan>,
     redo: Vec<Plan>,
-    /// While set, further edits with the same key join the last undo step.
-    open: Option<CoalesceKey>,
+    /// The drag or typing burst under way, if any.
+    open: Option<Burst>,
+}
+
+/// A drag or typing burst: further edits with its key join its undo step.
+/// Starting it took away the redo steps (and, at the limit, the oldest undo
+/// step); they come back if it ends where it began.
+#[derive(Debug)]
+struct Burst {
+    key: CoalesceKey,
+    redo: Vec<Plan>,
+    oldest: Option<Plan>,
 }
 
 impl History {
     /// Record the plan as it was just before an edit with this key.
     pub fn record(&mut self, before: &Plan, key: Option<CoalesceKey>) {
-        if key.is_some() && key == self.open {
+        if key.is_some() && key == self.open.as_ref().map(|b| b.key) {
             return;
         }
+        self.end_burst(before);
         self.undo.push(before.clone());
-        if self.undo.len() > UNDO_LIMIT {
-            self.undo.remove(0);
-        }
-        self.redo.clear();
-        self.open = key;
+        let oldest = (self.undo.len() > UNDO_LIMIT).then(|| self.undo.remove(0));
+        let redo = std::mem::take(&mut self.redo);
+        self.open = key.map(|key| Burst { key, redo, oldest });
     }
 
     /// End the current drag or typing burst: the next edit starts a new step.
-    pub fn seal(&mut self) {
-        self.open = None;
+    pub fn seal(&mut self, current: &Plan) {
+        self.end_burst(current);
+    }
+
+    /// A burst that ended where it began (a slider dragged away and back, a
+    /// name typed and erased) leaves no step, and gives back what starting
+    /// it took: undoing it would change nothing.
+    fn end_burst(&mut self, current: &Plan) {
+        if let Some(burst) = self.open.take()
+            && self.undo.last() == Some(current)
+        {
+            self.undo.pop();
+            if let Some(oldest) = burst.oldest {
+                self.undo.insert(0, oldest);
+            }
+            self.redo = burst.redo;
+        }
     }
 
     /// Step back. Returns false when there is nothing to undo.
     pub fn undo(&mut self, current: &mut Plan) -> bool {
-        self.open = None;
+        self.end_burst(current);
         match self.undo.pop() {
             Some(previous) => {
                 self.redo.push(std::mem::replace(current, previous));
@@ -52,7 +76,7 @@ impl History {
 
     /// Step forward again. Returns false when there is nothing to redo.
     pub fn redo(&mut self, current: &mut Plan) -> bool {
-        self.open = None;
+        self.end_burst(current);
         match self.redo.pop() {
             Some(next) => {
                 self.undo.push(std::mem::replace(current, next));
@@ -120,13 +144,60 @@ mod tests {
             plan = named(&format!("drag {i}"));
         }
         assert_eq!(history.undo_len(), 1);
-        history.seal();
+        history.seal(&plan);
         history.record(&plan, key);
         assert_eq!(history.undo_len(), 2);
         plan = named("end");
         assert!(history.undo(&mut plan));
         assert!(history.undo(&mut plan));
         assert_eq!(plan.name, "start");
+    }
+
+    #[test]
+    fn a_burst_that_ends_where_it_began_leaves_no_step() {
+        let mut history = History::default();
+        let key = Some(CoalesceKey::WhiteBalance);
+        let start = named("start");
+        history.record(&start, None);
+        let mut plan = named("one step");
+        history.record(&plan, key);
+        plan = named("dragged");
+        history.record(&plan, key);
+        plan = named("one step"); // dragged back
+        history.seal(&plan);
+        assert_eq!(history.undo_len(), 1, "only the step before the drag");
+        // Nor does it take away the redo steps.
+        assert!(history.undo(&mut plan));
+        history.record(&plan, key);
+        plan = named("dragged");
+        history.record(&plan, key);
+        assert_eq!(history.redo_len(), 0, "redo is away while the drag goes on");
+        plan = named("start");
+        history.seal(&plan);
+        assert_eq!((history.undo_len(), history.redo_len()), (0, 1));
+        assert!(history.redo(&mut plan));
+        assert_eq!(plan.name, "one step");
+        // A sealed step is never dropped later, even when it matches.
+        history.record(&plan, None);
+        history.seal(&plan);
+        assert_eq!(history.undo_len(), 2);
+    }
+
+    #[test]
+    fn an_empty_burst_at_the_limit_keeps_the_oldest_step() {
+        let mut history = History::default();
+        for i in 0..UNDO_LIMIT {
+            history.record(&named(&format!("{i}")), None);
+        }
+        let plan = named("last");
+        history.record(&plan, Some(CoalesceKey::PlanName));
+        history.seal(&plan);
+        assert_eq!(history.undo_len(), UNDO_LIMIT);
+        let mut current = plan;
+        for _ in 0..UNDO_LIMIT {
+            assert!(history.undo(&mut current));
+        }
+        assert_eq!(current.name, "0", "the oldest step is back");
     }
 
     #[test]
