@@ -535,3 +535,29 @@ fn every_demo_plan_opens_from_the_menu_and_evaluates() {
         assert_eq!(eval.subjects.len(), app.plan().subjects.len());
     }
 }
+
+#[test]
+fn the_kit_gel_list_is_edited_in_the_advisor_panel() {
+    let mut harness = harness();
+    // The café demo's kit lists six gels.
+    assert_eq!(harness.state().plan().kit.gels.len(), 6);
+    harness.get_by_label("Advisor").click();
+    harness.run();
+    harness
+        .get_by_label_contains("The kit: 6 gels from the library")
+        .click();
+    harness.run();
+    // Take the ND 0.3 off the truck: one undo step, the rest stays.
+    harness.get_by_label("ND 0.3 (one stop)").click();
+    harness.run();
+    let kit = &harness.state().plan().kit;
+    assert_eq!(kit.gels.len(), 5);
+    assert!(!kit.gels.iter().any(|g| g == "nd-03"));
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    harness.run();
+    assert!(harness.state().plan().kit.gels.iter().any(|g| g == "nd-03"));
+    // Every gel in the library: an empty list, as plan files say it.
+    harness.get_by_label("Every gel in the library").click();
+    harness.run();
+    assert!(harness.state().plan().kit.gels.is_empty());
+}

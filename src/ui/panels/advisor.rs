@@ -132,10 +132,61 @@ fn kit_settings(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
     } else {
         format!("{} gels from the library", kit.gels.len())
     };
-    ui.label(theme::caption(format!("The kit: {gels}.")));
+    egui::CollapsingHeader::new(format!("The kit: {gels}"))
+        .id_salt("kit-gels")
+        .show(ui, |ui| kit_gels(ui, &mut edited));
     if &edited != kit {
         cx.push(Command::Kit(edited));
     }
+}
+
+/// Which library gels the crew has on the truck: the advisor proposes only
+/// those. An empty list means the whole library.
+fn kit_gels(ui: &mut Ui, kit: &mut lampwright_plan::Kit) {
+    let library = &crate::ui::catalog::builtin().gels;
+    let mut everything = kit.gels.is_empty();
+    if ui
+        .checkbox(&mut everything, "Every gel in the library")
+        .on_hover_text("Untick to say which gels the crew has; the advisor proposes only those")
+        .changed()
+    {
+        kit.gels = if everything {
+            Vec::new()
+        } else {
+            library.iter().map(|g| g.id.clone()).collect()
+        };
+    }
+    if kit.gels.is_empty() {
+        return;
+    }
+    let mut group = "";
+    egui::ScrollArea::vertical()
+        .id_salt("kit-gel-list")
+        .max_height(220.0)
+        .show(ui, |ui| {
+            for g in library {
+                if g.group != group {
+                    group = &g.group;
+                    ui.label(theme::caption(&g.group));
+                }
+                let mut have = kit.gels.contains(&g.id);
+                // An empty list means the whole library, so the last gel stays.
+                let last = have && kit.gels.len() == 1;
+                let response = ui
+                    .add_enabled(!last, egui::Checkbox::new(&mut have, &g.name))
+                    .on_hover_text(&g.description)
+                    .on_disabled_hover_text(
+                        "The kit needs at least one gel (or tick every gel in the library)",
+                    );
+                if response.changed() {
+                    if have {
+                        kit.gels.push(g.id.clone());
+                    } else {
+                        kit.gels.retain(|id| id != &g.id);
+                    }
+                }
+            }
+        });
 }
 
 fn results(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
