@@ -546,6 +546,7 @@ mod tests {
                 source: 9,
                 level: ZoneLevel::Lux(100.0),
             }],
+            weight: 1.0,
         });
         plan.subjects.push(SubjectEntry {
             subject: SubjectRef::Library("unicorn".into()),
