@@ -845,6 +845,11 @@ impl Soak {
         if let Some(bad) = non_finite_token(&drawn) {
             panic!("{context}: the frame shows {bad}: {drawn}");
         }
+        let longest = longest_digit_run(&drawn);
+        assert!(
+            longest <= MAX_DIGITS,
+            "{context}: a number of {longest} digits on screen: {drawn}"
+        );
     }
 }
 
@@ -862,6 +867,18 @@ fn collect_text(shape: &Shape, out: &mut String) {
         }
         _ => {}
     }
+}
+
+/// Most digits in a row a number on screen may show. The window's own
+/// figures switch to a power of ten long before; the plots' axis labels
+/// for a very dim light (about 1e-14 W/m²/nm) show up to 15 decimals.
+const MAX_DIGITS: usize = 16;
+
+fn longest_digit_run(text: &str) -> usize {
+    text.split(|c: char| !c.is_ascii_digit())
+        .map(str::len)
+        .max()
+        .unwrap_or(0)
 }
 
 /// The first `NaN`, `inf` or `-inf` standing as a word outside quotes.
@@ -947,6 +964,21 @@ fn soak_300_actions() {
 fn soak_10000_actions() {
     let summary = soak(10_000, 0x5eed_0002);
     eprintln!("{summary}");
+}
+
+/// Found by the soak: a level of 1e300 lx was written out as a line of 300
+/// digits, in the readouts, the key-level slider and the level field.
+#[test]
+fn huge_and_tiny_levels_show_a_power_of_ten() {
+    let mut soak = Soak::new(0);
+    let ids: Vec<u32> = soak.plan().sources.iter().map(|s| s.id).collect();
+    for lux in [1e300, 2.5e-9] {
+        for &id in &ids {
+            soak.push(Command::Source(id, SourceEdit::LevelLux(lux)));
+        }
+        soak.check_screen(&format!("level {lux:e} lx"));
+    }
+    assert_eq!(longest_digit_run("1.98e302 lx, 1.000e300 lx, 12345"), 5);
 }
 
 /// Found by the soak: a slider dragged past the end it already sat at left

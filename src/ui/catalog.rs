@@ -126,8 +126,18 @@ pub fn lamp_name(plan: &Plan, lamp: &LampRef) -> String {
             .iter()
             .find(|s| &s.id == id)
             .map_or_else(|| format!("{id} (missing)"), |s| s.name.clone()),
-        LampRef::Blackbody { cct_k } => format!("Black body {cct_k:.0} K"),
-        LampRef::Daylight { cct_k } => format!("CIE daylight {cct_k:.0} K"),
+        LampRef::Blackbody { cct_k } => {
+            format!(
+                "Black body {} K",
+                super::format::field_number(*cct_k, 0..=0)
+            )
+        }
+        LampRef::Daylight { cct_k } => {
+            format!(
+                "CIE daylight {} K",
+                super::format::field_number(*cct_k, 0..=0)
+            )
+        }
     }
 }
 

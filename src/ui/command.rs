@@ -213,6 +213,28 @@ fn check_level(level: &ZoneLevel) -> Result<(), CommandError> {
     }
 }
 
+/// Colour temperatures the generic lamps take in the window (the pickers'
+/// ranges; CIE daylight is defined from 4000 K to 25 000 K).
+const BLACKBODY_RANGE_K: std::ops::RangeInclusive<f64> = 1000.0..=20_000.0;
+const DAYLIGHT_RANGE_K: std::ops::RangeInclusive<f64> = 4000.0..=25_000.0;
+
+fn check_lamp(lamp: LampRef) -> Result<LampRef, CommandError> {
+    let (cct_k, range, what) = match &lamp {
+        LampRef::Blackbody { cct_k } => (*cct_k, BLACKBODY_RANGE_K, "black-body"),
+        LampRef::Daylight { cct_k } => (*cct_k, DAYLIGHT_RANGE_K, "CIE daylight"),
+        LampRef::Library(_) | LampRef::Custom(_) => return Ok(lamp),
+    };
+    if range.contains(&cct_k) {
+        Ok(lamp)
+    } else {
+        Err(CommandError(format!(
+            "a {what} lamp takes {:.0} K to {:.0} K",
+            range.start(),
+            range.end()
+        )))
+    }
+}
+
 fn source_mut(plan: &mut Plan, id: SourceId) -> Result<&mut Source, CommandError> {
     plan.source_mut(id)
         .ok_or_else(|| CommandError(format!("no source with id {id} in the plan")))
@@ -235,7 +257,7 @@ fn apply_source_edit(source: &mut Source, edit: SourceEdit) -> Result<(), Comman
     match edit {
         SourceEdit::Name(name) => source.name = name,
         SourceEdit::Role(role) => source.role = role,
-        SourceEdit::Lamp(lamp) => source.lamp = lamp,
+        SourceEdit::Lamp(lamp) => source.lamp = check_lamp(lamp)?,
         SourceEdit::LevelLux(lux) => source.level_lux = finite_non_negative(lux, "level")?,
         SourceEdit::Enabled(on) => source.enabled = on,
         SourceEdit::Solo(on) => source.solo = on,
@@ -513,6 +535,14 @@ mod tests {
         }
         assert!(apply(&mut plan, Command::Source(99, SourceEdit::Enabled(false))).is_err());
         assert!(apply(&mut plan, Command::Source(1, SourceEdit::RemoveGel(0))).is_err());
+        for lamp in [
+            LampRef::Daylight { cct_k: 1e300 },
+            LampRef::Daylight { cct_k: 3000.0 },
+            LampRef::Blackbody { cct_k: f64::NAN },
+            LampRef::Blackbody { cct_k: 0.0 },
+        ] {
+            assert!(apply(&mut plan, Command::Source(1, SourceEdit::Lamp(lamp))).is_err());
+        }
         assert!(
             apply(
                 &mut plan,

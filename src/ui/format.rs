@@ -54,13 +54,21 @@ pub fn lux(lux: f64) -> String {
     format!("{} lx", significant(lux, 3))
 }
 
-/// A value to `digits` significant figures without exponent, for readouts.
+/// Outside 1e-4 to 1e7 numbers are shown with a power of ten: written out,
+/// a level of 10³⁰⁰ lx would be a line of 300 digits.
+const PLAIN_MAGNITUDES: std::ops::RangeInclusive<i32> = -4..=6;
+
+/// A value to `digits` significant figures, for readouts: plain between
+/// 1e-4 and 1e7, else with a power of ten, as "1.98e12".
 #[must_use]
 pub fn significant(value: f64, digits: i32) -> String {
     if value == 0.0 || !value.is_finite() {
         return "0".into();
     }
     let magnitude = value.abs().log10().floor() as i32;
+    if !PLAIN_MAGNITUDES.contains(&magnitude) {
+        return times_ten_to(value, digits);
+    }
     let decimals = (digits - 1 - magnitude).max(0) as usize;
     let factor = 10f64.powi(magnitude - digits + 1);
     let rounded = if magnitude >= digits - 1 {
@@ -69,6 +77,26 @@ pub fn significant(value: f64, digits: i32) -> String {
         value
     };
     format!("{rounded:.decimals$}")
+}
+
+/// "1.98e12", "2.50e−9": `digits` significant figures and a power of ten
+/// (true minus signs; the window's font has no superscript minus).
+fn times_ten_to(value: f64, digits: i32) -> String {
+    let decimals = (digits - 1).max(0) as usize;
+    format!("{value:.decimals$e}").replace('-', "−")
+}
+
+/// How number fields (drag values) show their number: as egui does, but with
+/// an exponent ("1.980e15") beyond what reads at a glance, which the field's
+/// parser reads back.
+#[must_use]
+pub fn field_number(value: f64, decimals: std::ops::RangeInclusive<usize>) -> String {
+    let magnitude = value.abs();
+    if value != 0.0 && value.is_finite() && !(1e-6..1e9).contains(&magnitude) {
+        format!("{value:.3e}")
+    } else {
+        egui::emath::format_with_decimals_in_range(value, decimals)
+    }
 }
 
 /// Stops to 0.1 with sign, e.g. "−1.5 stops".
@@ -224,8 +252,24 @@ mod tests {
         assert_eq!(lux(1234.0), "1230 lx");
         assert_eq!(lux(45.26), "45.3 lx");
         assert_eq!(lux(0.5), "0.500 lx");
+        assert_eq!(lux(1.98e302), "1.98e302 lx");
+        assert_eq!(lux(2.5e-9), "2.50e−9 lx");
+        assert_eq!(lux(0.000_123_4), "0.000123 lx");
+        assert_eq!(lux(9_876_543.0), "9880000 lx");
+        assert_eq!(lux(12_345_678.0), "1.23e7 lx");
         assert_eq!(stops(Some(-1.54)), "−1.5 stops");
         assert_eq!(stops(Some(1.0)), "+1.0 stop");
+    }
+
+    #[test]
+    fn field_numbers_read_back() {
+        for value in [0.0, 1.5, 1000.0, 2.5e-9, 1e300, -4.0e12] {
+            let text = field_number(value, 0..=3);
+            assert!(text.len() < 16, "{text}");
+            let back: f64 = text.parse().unwrap();
+            assert!((back - value).abs() <= value.abs() * 1e-3, "{text}");
+        }
+        assert_eq!(field_number(1234.5, 0..=1), "1234.5");
     }
 
     #[test]

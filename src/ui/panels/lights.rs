@@ -26,7 +26,16 @@ pub fn strength_label(strength: f64) -> String {
     STRENGTHS
         .iter()
         .find(|(f, _)| (f - strength).abs() < 1e-9)
-        .map_or_else(|| format!("{strength:.2}"), |(_, l)| (*l).to_owned())
+        .map_or_else(
+            || {
+                if strength < 1e6 {
+                    format!("{strength:.2}")
+                } else {
+                    format!("{strength:.2e}")
+                }
+            },
+            |(_, l)| (*l).to_owned(),
+        )
 }
 
 /// The source the others' levels are given against: the first key, else the first source.
@@ -247,6 +256,7 @@ fn lamp_rows(ui: &mut Ui, cx: &mut PanelCtx<'_>, source: &Source) {
                 if ui
                     .add(
                         egui::DragValue::new(&mut k)
+                            .custom_formatter(format::field_number)
                             .clamp_existing_to_range(false)
                             .range(range)
                             .speed(10.0)
@@ -352,6 +362,7 @@ fn level_row(
                 let mut lux = source.level_lux.max(0.1);
                 let slider = egui::Slider::new(&mut lux, 1.0..=200_000.0)
                     .clamping(egui::SliderClamping::Edits)
+                    .custom_formatter(format::field_number)
                     .logarithmic(true)
                     .fixed_decimals(0)
                     .suffix(" lx")
@@ -372,6 +383,7 @@ fn level_row(
         let drag = ui
             .add(
                 egui::DragValue::new(&mut lux)
+                    .custom_formatter(format::field_number)
                     .clamp_existing_to_range(false)
                     .range(0.0..=1.0e6)
                     .speed(5.0)
@@ -458,6 +470,7 @@ fn gel_stack(ui: &mut Ui, cx: &mut PanelCtx<'_>, source: &Source) {
                 let drag = ui
                     .add(
                         egui::DragValue::new(&mut typed)
+                            .custom_formatter(format::field_number)
                             .clamp_existing_to_range(false)
                             .range(0.0..=4.0)
                             .speed(0.01)
@@ -502,6 +515,7 @@ mod tests {
         assert_eq!(strength_label(0.5), "1/2");
         assert_eq!(strength_label(1.0), "full");
         assert_eq!(strength_label(0.3), "0.30");
+        assert_eq!(strength_label(1e300), "1.00e300");
     }
 
     #[test]

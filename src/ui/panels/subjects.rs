@@ -4,6 +4,7 @@
 use crate::ui::actions::Action;
 use crate::ui::catalog;
 use crate::ui::command::Command;
+use crate::ui::format;
 use crate::ui::theme;
 use crate::ui::widgets::{self, PanelCtx};
 use egui::Ui;
@@ -120,6 +121,7 @@ fn subject_list(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
                     if ui
                         .add(
                             egui::DragValue::new(&mut weight)
+                                .custom_formatter(format::field_number)
                                 .clamp_existing_to_range(false)
                                 .range(0.0..=10.0)
                                 .speed(0.05)

@@ -120,6 +120,7 @@ fn zone_card(ui: &mut Ui, cx: &mut PanelCtx<'_>, zone: &Zone, figures: Option<&Z
                     let drag = ui
                         .add(
                             egui::DragValue::new(&mut weight)
+                                .custom_formatter(format::field_number)
                                 .range(0.0..=10.0)
                                 .speed(0.05)
                                 .max_decimals(2),
@@ -221,6 +222,7 @@ fn level_fields(
                 if ui
                     .add(
                         egui::DragValue::new(&mut v)
+                            .custom_formatter(format::field_number)
                             .clamp_existing_to_range(false)
                             .range(0.0..=1.0e6)
                             .speed(5.0)
@@ -236,6 +238,7 @@ fn level_fields(
                 if ui
                     .add(
                         egui::DragValue::new(&mut v)
+                            .custom_formatter(format::field_number)
                             .clamp_existing_to_range(false)
                             .range(-12.0..=6.0)
                             .speed(0.05)
@@ -254,6 +257,7 @@ fn level_fields(
                 let (mut rated, mut distance) = (rated_lux_at_1m, distance_m);
                 let a = ui.add(
                     egui::DragValue::new(&mut rated)
+                        .custom_formatter(format::field_number)
                         .clamp_existing_to_range(false)
                         .range(0.0..=1.0e7)
                         .speed(10.0)
@@ -261,6 +265,7 @@ fn level_fields(
                 );
                 let b = ui.add(
                     egui::DragValue::new(&mut distance)
+                        .custom_formatter(format::field_number)
                         .clamp_existing_to_range(false)
                         .range(0.1..=200.0)
                         .speed(0.05)
