@@ -981,6 +981,35 @@ fn huge_and_tiny_levels_show_a_power_of_ten() {
     assert_eq!(longest_digit_run("1.98e302 lx, 1.000e300 lx, 12345"), 5);
 }
 
+/// Found by the soak: with a key at 0.001 lx and a fill near 1e306 lx, the
+/// fill's stops from the key (a ratio) and the scene's EV (the illuminance
+/// times 100 before dividing by 250) overflowed to infinity.
+#[test]
+fn overflowing_levels_still_give_finite_figures() {
+    let mut soak = Soak::new(0);
+    let plan = soak.plan().clone();
+    let key = plan
+        .sources
+        .iter()
+        .find(|s| s.role == lampwright_plan::SourceRole::Key)
+        .expect("the demo has a key")
+        .id;
+    soak.push(Command::Source(key, SourceEdit::LevelLux(1e-3)));
+    for source in plan.sources.iter().filter(|s| s.id != key) {
+        soak.push(Command::Source(source.id, SourceEdit::LevelLux(1e307)));
+    }
+    assert!(soak.app().evaluation_error().is_none());
+    soak.check_screen("key at 0.001 lx, fills at 1e307 lx");
+    let eval = soak.app().evaluation().expect("evaluation");
+    assert!(eval.light.ev100.is_some_and(f64::is_finite));
+    assert!(
+        eval.sources
+            .iter()
+            .filter_map(|s| s.stops_from_key)
+            .all(f64::is_finite)
+    );
+}
+
 /// Found by the soak: a slider dragged past the end it already sat at left
 /// an undo step that changed nothing.
 #[test]

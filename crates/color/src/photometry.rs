@@ -77,7 +77,8 @@ pub fn ev100_from_illuminance_lux(illuminance_lux: f64) -> Result<f64> {
             range: "> 0 lx (EV is undefined in darkness)",
         });
     }
-    Ok((illuminance_lux * ISO_SPEED_100 / INCIDENT_C_FLAT_LX_S).log2())
+    // In log space, so that no finite illuminance overflows on the way.
+    Ok(illuminance_lux.log2() + (ISO_SPEED_100 / INCIDENT_C_FLAT_LX_S).log2())
 }
 
 /// Incident illuminance in lux for an exposure value at ISO 100, the inverse of
@@ -131,6 +132,9 @@ mod tests {
         }
         assert!(ev100_from_illuminance_lux(0.0).is_err());
         assert!(ev100_from_illuminance_lux(f64::NAN).is_err());
+        // The largest finite illuminance still has a finite EV.
+        let top = ev100_from_illuminance_lux(f64::MAX).unwrap();
+        assert!(top.is_finite() && (top - (f64::MAX.log2() - 2.5_f64.log2())).abs() < 1e-9);
         assert!(illuminance_lux_from_ev100(f64::INFINITY).is_err());
     }
 }

@@ -529,7 +529,7 @@ impl Evaluator {
                 metamers = rendered.metamers;
             }
             let stops_from_main = (main_lux > DARK_LUX && light.illuminance_lux > DARK_LUX)
-                .then(|| (light.illuminance_lux / main_lux).log2());
+                .then(|| light.illuminance_lux.log2() - main_lux.log2());
             let mired_from_white_balance = match (light.mired, camera.figures().wb_cct_k) {
                 (Some(zm), Some(wb)) => mired(wb).ok().map(|wm| zm - wm),
                 _ => None,
@@ -598,7 +598,8 @@ fn source_figures(sources: &[SourceLight], parts: &[(usize, f64)]) -> Vec<Source
                 lit: s.lit,
                 illuminance_lux: lux,
                 stops_from_key: (key_lux > DARK_LUX && lux > DARK_LUX && s.role != SourceRole::Key)
-                    .then(|| (lux / key_lux).log2()),
+                    // A difference of logs: the ratio of two finite levels can overflow.
+                    .then(|| lux.log2() - key_lux.log2()),
                 gel_loss_stops: -s.gel_transmission.max(f64::MIN_POSITIVE).log2(),
                 cct_k: cct.map(|c| c.cct_k),
                 duv: cct.map(|c| c.duv),

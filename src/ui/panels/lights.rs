@@ -338,7 +338,8 @@ fn level_row(
         match key {
             Some(key) if key.id != id && key.level_lux > 0.0 => {
                 let mut stops = if source.level_lux > 0.0 {
-                    (source.level_lux / key.level_lux).log2()
+                    // A difference of logs: the ratio of two levels can overflow.
+                    source.level_lux.log2() - key.level_lux.log2()
                 } else {
                     -10.0
                 };
