@@ -869,10 +869,12 @@ fn collect_text(shape: &Shape, out: &mut String) {
     }
 }
 
-/// Most digits in a row a number on screen may show. The window's own
-/// figures switch to a power of ten long before; the plots' axis labels
-/// for a very dim light (about 1e-14 W/m²/nm) show up to 15 decimals.
-const MAX_DIGITS: usize = 16;
+/// Most digits in a row a number on screen may show. A float printed in
+/// full precision has at most 17 significant digits (the engine's notes do
+/// that, e.g. "Duv = 0.06263408530842055"), and the plots' axis labels for
+/// a very dim light show up to 15 decimals; more than 20 digits is a huge or
+/// tiny number written out positionally, as 1e300 lx once was.
+const MAX_DIGITS: usize = 20;
 
 fn longest_digit_run(text: &str) -> usize {
     text.split(|c: char| !c.is_ascii_digit())
@@ -1008,6 +1010,25 @@ fn overflowing_levels_still_give_finite_figures() {
             .filter_map(|s| s.stops_from_key)
             .all(f64::is_finite)
     );
+}
+
+/// Found by the soak: a zone level that overflows (a huge level, many stops
+/// up) was refused with a message that read "inf lux is not a level".
+#[test]
+fn an_overflowing_zone_level_is_refused_without_inf_on_screen() {
+    let mut soak = Soak::new(0);
+    let source = soak.plan().sources[0].id;
+    soak.push(Command::Source(source, SourceEdit::LevelLux(1e300)));
+    soak.push(Command::AddZone("Far".into()));
+    let zone = soak.plan().zones.last().expect("the zone").id;
+    soak.push(Command::Reach {
+        zone,
+        source,
+        level: Some(ZoneLevel::Stops(1000.0)),
+    });
+    let err = soak.app().evaluation_error().expect("refused").to_owned();
+    assert!(err.contains("too large"), "{err}");
+    soak.check_screen("a zone level of 1e300 lx plus 1000 stops");
 }
 
 /// Found by the soak: a slider dragged past the end it already sat at left

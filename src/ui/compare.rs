@@ -154,6 +154,7 @@ fn controls(ui: &mut Ui, cx: &mut PanelCtx<'_>, eval: &Evaluation, prefs: &mut P
         let label = ui.label(theme::caption("ΔE00 at least"));
         ui.add(
             egui::DragValue::new(&mut cx.view.filter_min_de)
+                .custom_formatter(format::field_number)
                 .clamp_existing_to_range(false)
                 .range(0.0..=50.0)
                 .speed(0.1)

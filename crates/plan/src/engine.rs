@@ -86,7 +86,7 @@ pub fn source_light(plan: &Plan, source: &Source) -> Result<SourceLight> {
     if !source.level_lux.is_finite() || source.level_lux < 0.0 {
         return Err(PlanError::Invalid {
             field: format!("{context} level"),
-            message: format!("{} lux is not a level (use 0 or more)", source.level_lux),
+            message: not_a_level(source.level_lux),
         });
     }
     let resolved = resolve::resolve_source(plan, source)?;
@@ -125,6 +125,18 @@ struct ZoneMix {
     parts: Vec<(usize, f64)>,
 }
 
+/// Why a level is refused, without quoting a non-finite number (the window
+/// shows the message as it is).
+fn not_a_level(lux: f64) -> String {
+    if lux.is_nan() {
+        "the level is not a number".into()
+    } else if lux.is_infinite() {
+        "the level is too large to compute (too many stops up, or too short a distance)".into()
+    } else {
+        format!("{lux} lux is not a level (use 0 or more)")
+    }
+}
+
 fn zone_level_lux(source: &SourceLight, level: &ZoneLevel, zone: &str) -> Result<f64> {
     let lux = match level {
         ZoneLevel::AsSource => source.level_lux,
@@ -143,7 +155,7 @@ fn zone_level_lux(source: &SourceLight, level: &ZoneLevel, zone: &str) -> Result
     if !lux.is_finite() || lux < 0.0 {
         return Err(PlanError::Invalid {
             field: format!("zone '{zone}', source '{}'", source.name),
-            message: format!("{lux} lux is not a level"),
+            message: not_a_level(lux),
         });
     }
     Ok(lux)

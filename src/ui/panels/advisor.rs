@@ -87,12 +87,14 @@ fn goal_settings(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
         ui.horizontal(|ui| {
             ui.add(
                 egui::DragValue::new(&mut cct)
+                    .custom_formatter(format::field_number)
                     .range(1000.0..=25_000.0)
                     .speed(10.0)
                     .suffix(" K"),
             );
             ui.add(
                 egui::DragValue::new(&mut duv)
+                    .custom_formatter(format::field_number)
                     .range(-0.05..=0.05)
                     .speed(0.0005)
                     .fixed_decimals(3)
@@ -119,6 +121,7 @@ fn kit_settings(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
         let label = ui.label("Light lost, at most");
         ui.add(
             egui::DragValue::new(&mut edited.max_stops_lost)
+                .custom_formatter(format::field_number)
                 .range(0.0..=6.0)
                 .speed(0.05)
                 .fixed_decimals(1)
