@@ -422,9 +422,10 @@ pub fn scan(dir: &Path) -> Scan {
                 let info = fs::read_to_string(slot.info_file())
                     .ok()
                     .and_then(|text| ron::from_str::<AutosaveInfo>(&text).ok());
+                // A time the clock cannot hold (a damaged info file) counts as unknown.
                 let saved_at = info
                     .as_ref()
-                    .map(|i| UNIX_EPOCH + Duration::from_secs(i.saved_at_unix_s))
+                    .and_then(|i| saved_at(i.saved_at_unix_s))
                     .or_else(|| fs::metadata(&plan_file).and_then(|m| m.modified()).ok());
                 out.found.push(Recovered {
                     plan,
@@ -451,6 +452,11 @@ pub fn scan(dir: &Path) -> Scan {
     out
 }
 
+/// The moment `unix_s` seconds after the Unix epoch, if the system clock can hold it.
+fn saved_at(unix_s: u64) -> Option<SystemTime> {
+    UNIX_EPOCH.checked_add(Duration::from_secs(unix_s))
+}
+
 /// "3 min ago", "2 h ago", "5 days ago": how long ago a moment was.
 #[must_use]
 pub fn age_text(then: SystemTime, now: SystemTime) -> String {
@@ -466,6 +472,13 @@ pub fn age_text(then: SystemTime, now: SystemTime) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn an_impossible_save_time_is_unknown_not_a_crash() {
+        // A damaged info file can hold any u64; the largest must not overflow the clock.
+        assert!(saved_at(u64::MAX).is_none());
+        assert_eq!(saved_at(0), Some(UNIX_EPOCH));
+    }
 
     fn named(name: &str) -> Plan {
         Plan {
