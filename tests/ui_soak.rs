@@ -973,11 +973,13 @@ fn soak_10000_actions() {
 #[test]
 fn huge_and_tiny_levels_show_a_power_of_ten() {
     let mut soak = Soak::new(0);
-    let ids: Vec<u32> = soak.plan().sources.iter().map(|s| s.id).collect();
+    // The window refuses such levels; a plan file can still hold them.
     for lux in [1e300, 2.5e-9] {
-        for &id in &ids {
-            soak.push(Command::Source(id, SourceEdit::LevelLux(lux)));
+        let mut plan = soak.plan().clone();
+        for source in &mut plan.sources {
+            source.level_lux = lux;
         }
+        soak.push(Command::ReplacePlan(Box::new(plan)));
         soak.check_screen(&format!("level {lux:e} lx"));
     }
     assert_eq!(longest_digit_run("1.98e302 lx, 1.000e300 lx, 12345"), 5);
@@ -996,10 +998,11 @@ fn overflowing_levels_still_give_finite_figures() {
         .find(|s| s.role == lampwright_plan::SourceRole::Key)
         .expect("the demo has a key")
         .id;
-    soak.push(Command::Source(key, SourceEdit::LevelLux(1e-3)));
-    for source in plan.sources.iter().filter(|s| s.id != key) {
-        soak.push(Command::Source(source.id, SourceEdit::LevelLux(1e307)));
+    let mut plan = plan;
+    for source in &mut plan.sources {
+        source.level_lux = if source.id == key { 1e-3 } else { 1e307 };
     }
+    soak.push(Command::ReplacePlan(Box::new(plan)));
     assert!(soak.app().evaluation_error().is_none());
     soak.check_screen("key at 0.001 lx, fills at 1e307 lx");
     let eval = soak.app().evaluation().expect("evaluation");
@@ -1018,14 +1021,27 @@ fn overflowing_levels_still_give_finite_figures() {
 fn an_overflowing_zone_level_is_refused_without_inf_on_screen() {
     let mut soak = Soak::new(0);
     let source = soak.plan().sources[0].id;
-    soak.push(Command::Source(source, SourceEdit::LevelLux(1e300)));
     soak.push(Command::AddZone("Far".into()));
     let zone = soak.plan().zones.last().expect("the zone").id;
-    soak.push(Command::Reach {
+    let refused = Command::Reach {
         zone,
         source,
         level: Some(ZoneLevel::Stops(1000.0)),
-    });
+    };
+    let before = soak.plan().clone();
+    soak.push(refused);
+    assert_eq!(soak.plan(), &before, "the window refuses 1000 stops");
+    // A plan file can still hold it.
+    let mut plan = before;
+    plan.sources[0].level_lux = 1e300;
+    if let Some(reach) = plan
+        .zones
+        .last_mut()
+        .and_then(|z| z.reach.iter_mut().find(|r| r.source == source))
+    {
+        reach.level = ZoneLevel::Stops(1000.0);
+    }
+    soak.push(Command::ReplacePlan(Box::new(plan)));
     let err = soak.app().evaluation_error().expect("refused").to_owned();
     assert!(err.contains("too large"), "{err}");
     soak.check_screen("a zone level of 1e300 lx plus 1000 stops");

@@ -188,26 +188,45 @@ fn finite_non_negative(value: f64, what: &str) -> Result<f64, CommandError> {
     }
 }
 
+/// Most lux a level may be set to in the window: ten thousand times full
+/// sunlight. Far beyond it the engine's sums overflow to infinity.
+pub const MAX_LEVEL_LUX: f64 = 1e9;
+/// Most stops a zone may be set above or below a source.
+pub const MAX_ZONE_STOPS: f64 = 60.0;
+/// Shortest distance a zone may be from a source, m.
+pub const MIN_DISTANCE_M: f64 = 1e-3;
+
+fn level_lux(value: f64, what: &str) -> Result<f64, CommandError> {
+    let value = finite_non_negative(value, what)?;
+    if value <= MAX_LEVEL_LUX {
+        Ok(value)
+    } else {
+        Err(CommandError(format!("{what} must be at most 1e9 lx")))
+    }
+}
+
 fn check_level(level: &ZoneLevel) -> Result<(), CommandError> {
     match level {
         ZoneLevel::AsSource => Ok(()),
-        ZoneLevel::Lux(lux) => finite_non_negative(*lux, "zone illuminance").map(|_| ()),
+        ZoneLevel::Lux(lux) => level_lux(*lux, "zone illuminance").map(|_| ()),
         ZoneLevel::Stops(stops) => {
-            if stops.is_finite() {
+            if stops.is_finite() && stops.abs() <= MAX_ZONE_STOPS {
                 Ok(())
             } else {
-                Err(CommandError("zone level in stops must be a number".into()))
+                Err(CommandError(
+                    "zone level in stops must be −60 to +60".into(),
+                ))
             }
         }
         ZoneLevel::Distance {
             rated_lux_at_1m,
             distance_m,
         } => {
-            finite_non_negative(*rated_lux_at_1m, "rated illuminance at 1 m")?;
-            if distance_m.is_finite() && *distance_m > 0.0 {
+            level_lux(*rated_lux_at_1m, "rated illuminance at 1 m")?;
+            if distance_m.is_finite() && *distance_m >= MIN_DISTANCE_M {
                 Ok(())
             } else {
-                Err(CommandError("distance must be more than 0 m".into()))
+                Err(CommandError("distance must be at least 1 mm".into()))
             }
         }
     }
@@ -258,7 +277,7 @@ fn apply_source_edit(source: &mut Source, edit: SourceEdit) -> Result<(), Comman
         SourceEdit::Name(name) => source.name = name,
         SourceEdit::Role(role) => source.role = role,
         SourceEdit::Lamp(lamp) => source.lamp = check_lamp(lamp)?,
-        SourceEdit::LevelLux(lux) => source.level_lux = finite_non_negative(lux, "level")?,
+        SourceEdit::LevelLux(lux) => source.level_lux = level_lux(lux, "level")?,
         SourceEdit::Enabled(on) => source.enabled = on,
         SourceEdit::Solo(on) => source.solo = on,
         SourceEdit::Dimmer(fraction) => {
@@ -400,7 +419,7 @@ fn add_source(plan: &mut Plan, mut source: Source) -> Result<(), CommandError> {
             "a plan holds at most {MAX_SOURCES} sources"
         )));
     }
-    finite_non_negative(source.level_lux, "level")?;
+    level_lux(source.level_lux, "level")?;
     source.id = plan.next_source_id();
     // A new light reaches the main zone (the first), where the summary is
     // read; the other zones are the user's call.
@@ -530,7 +549,7 @@ mod tests {
     fn bad_numbers_are_refused_and_change_nothing() {
         let mut plan = two_sources();
         let before = plan.clone();
-        for lux in [f64::NAN, f64::INFINITY, -1.0] {
+        for lux in [f64::NAN, f64::INFINITY, -1.0, 1.1e9, 1e300] {
             assert!(apply(&mut plan, Command::Source(1, SourceEdit::LevelLux(lux))).is_err());
         }
         assert!(apply(&mut plan, Command::Source(99, SourceEdit::Enabled(false))).is_err());
