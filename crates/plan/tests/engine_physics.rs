@@ -189,15 +189,25 @@ fn inverse_square_doubling_distance_costs_two_stops() {
     assert!(lampwright_plan::engine::inverse_square_lux(4000.0, 0.0).is_none());
 }
 
-#[test]
-fn source_only_in_shadow_zone_leaves_key_side_alone() {
-    let mut plan = plan_with(vec![
+/// A 5600 K daylight key (id 1) at 1000 lx and an ambient sodium street light (id 2).
+fn daylight_key_and_sodium_street(street_lux: f64) -> Plan {
+    plan_with(vec![
         source(1, "Key", LampRef::Daylight { cct_k: 5600.0 }, 1000.0),
         Source {
             role: SourceRole::Ambient,
-            ..source(2, "Street", LampRef::Library("hps-street".into()), 100.0)
+            ..source(
+                2,
+                "Street",
+                LampRef::Library("hps-street".into()),
+                street_lux,
+            )
         },
-    ]);
+    ])
+}
+
+#[test]
+fn source_only_in_shadow_zone_leaves_key_side_alone() {
+    let mut plan = daylight_key_and_sodium_street(100.0);
     let key_zone = Zone {
         id: 1,
         name: "Key side".into(),
@@ -290,13 +300,7 @@ fn automatic_white_balance_meters_the_whole_frame() {
     // exactly must give the key side's own gains (the mean of a set repeated
     // is its mean); a sodium-lit shadow side must pull the estimate warmer
     // (less red gain relative to blue), so key-side subjects shift.
-    let mut plan = plan_with(vec![
-        source(1, "Key", LampRef::Daylight { cct_k: 5600.0 }, 1000.0),
-        Source {
-            role: SourceRole::Ambient,
-            ..source(2, "Street", LampRef::Library("hps-street".into()), 1000.0)
-        },
-    ]);
+    let mut plan = daylight_key_and_sodium_street(1000.0);
     plan.subjects.push(SubjectEntry {
         subject: SubjectRef::Library("skin-tan".into()),
         ..SubjectEntry::default()
