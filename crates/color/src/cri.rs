@@ -27,10 +27,11 @@
 
 use crate::cct::{CctDuv, CctMethod, cct_duv, uv1960_of_spd};
 use crate::error::{ColorError, Result};
-use crate::illuminant::{daylight, planckian};
+use crate::illuminant::{daylight, daylight_basis, daylight_m1_m2, planckian};
+use crate::mired_table::MiredTable;
 use crate::observer::Observer;
 use crate::spaces::Uv1960;
-use crate::spectral_weights::SampleSet;
+use crate::spectral_weights::{SampleSet, SampleXyz};
 use crate::spectrum::{GRID_LEN, Reflectance, RelativeSpd};
 use crate::table::AssetTable;
 use std::sync::LazyLock;
@@ -132,8 +133,7 @@ pub fn cri_reference(cct_k: f64) -> Result<(RelativeSpd, ReferenceKind)> {
 pub fn cri_cie133(test: &RelativeSpd) -> Result<Cri> {
     let uv = uv1960_of_spd(test, "light")?;
     let cct = cct_duv(uv, CctMethod::Ohno2014)?;
-    let (reference, kind) = cri_reference(cct.cct_k)?;
-    cri_cie133_with_reference(test, cct, &reference, kind)
+    cri_with_cct(test, cct)
 }
 
 /// CIE 13.3 adaptation functions of §5.5: c = (4 − u − 10v)/v, d = (1.708v + 0.404 − 1.481u)/v.
@@ -151,8 +151,103 @@ fn uvw_1964(y: f64, uv: Uv1960, white: Uv1960) -> [f64; 3] {
     [13.0 * w * (uv.u - white.u), 13.0 * w * (uv.v - white.v), w]
 }
 
+/// What the reference contributes to CRI: its white in (u, v) and each
+/// sample's `U*V*W*`.
+#[derive(Debug, Clone, Copy)]
+struct ReferenceSide {
+    white: Uv1960,
+    uvw: [[f64; 3]; 14],
+}
+
+/// Values per node of the Planckian table: white (u, v), then U*V*W* of 14 samples.
+const TABLE_WIDTH: usize = 2 + 3 * 14;
+
+impl ReferenceSide {
+    /// From the sample sums under the reference.
+    fn from_sums(xr: &SampleXyz) -> Result<ReferenceSide> {
+        let wr = xr.white;
+        if !(wr.y > 0.0) {
+            return Err(ColorError::NotColorimetric {
+                what: "CRI reference".into(),
+                reason: "it has no visible power".into(),
+            });
+        }
+        let white = Uv1960::from_xyz(wr);
+        let mut uvw = [[0.0; 3]; 14];
+        for (e, sr) in uvw.iter_mut().zip(&xr.samples) {
+            let sr = sr.scaled(100.0 / wr.y);
+            *e = uvw_1964(sr.y, Uv1960::from_xyz(sr), white);
+        }
+        Ok(ReferenceSide { white, uvw })
+    }
+
+    fn write(&self, out: &mut [f64]) {
+        out[0] = self.white.u;
+        out[1] = self.white.v;
+        for (o, e) in out[2..].chunks_exact_mut(3).zip(&self.uvw) {
+            o.copy_from_slice(e);
+        }
+    }
+
+    fn read(v: &[f64]) -> ReferenceSide {
+        let mut uvw = [[0.0; 3]; 14];
+        for (e, c) in uvw.iter_mut().zip(v[2..].chunks_exact(3)) {
+            *e = [c[0], c[1], c[2]];
+        }
+        ReferenceSide {
+            white: Uv1960 { u: v[0], v: v[1] },
+            uvw,
+        }
+    }
+}
+
+/// The Planckian reference side, 1000–5000 K, 2 mired between nodes (see the
+/// table-against-direct test).
+static PLANCK_TABLE: LazyLock<Result<MiredTable>> = LazyLock::new(|| {
+    let set = TCS_SET.as_ref().map_err(Clone::clone)?;
+    MiredTable::build((1000.0, CRI_DAYLIGHT_FROM_K), 401, TABLE_WIDTH, |t, out| {
+        ReferenceSide::from_sums(&set.xyz_one(planckian(t)?.values()))?.write(out);
+        Ok(())
+    })
+});
+
+/// TCS sums of the daylight basis S0, S1, S2 (daylight is linear in them).
+static DAYLIGHT_SUMS: LazyLock<Result<[SampleXyz; 3]>> = LazyLock::new(|| {
+    let set = TCS_SET.as_ref().map_err(Clone::clone)?;
+    Ok(daylight_basis()?.each_ref().map(|s| set.xyz_one(s)))
+});
+
+/// The reference side at `cct_k` with its kind: table or basis sums where
+/// they reach, the reference spectrum otherwise.
+fn reference_side(cct_k: f64) -> Result<(ReferenceSide, ReferenceKind)> {
+    if cct_k >= CRI_DAYLIGHT_FROM_K {
+        let (m1, m2) = daylight_m1_m2(cct_k)?;
+        let [s0, s1, s2] = DAYLIGHT_SUMS.as_ref().map_err(Clone::clone)?;
+        let sums = SampleXyz::combine(&[(1.0, s0), (m1, s1), (m2, s2)]);
+        return Ok((ReferenceSide::from_sums(&sums)?, ReferenceKind::Daylight));
+    }
+    if let Ok(table) = PLANCK_TABLE.as_ref() {
+        let mut v = [0.0; TABLE_WIDTH];
+        if table.eval(cct_k, &mut v) {
+            return Ok((ReferenceSide::read(&v), ReferenceKind::Planckian));
+        }
+    }
+    let (reference, kind) = cri_reference(cct_k)?;
+    let set = TCS_SET.as_ref().map_err(Clone::clone)?;
+    Ok((ReferenceSide::from_sums(&set.xyz_one(reference.values()))?, kind))
+}
+
+/// Ra and Ri of `test` whose CCT is already known (`cct`, Ohno 2014), against
+/// the CIE 13.3 reference at that CCT.
+pub fn cri_with_cct(test: &RelativeSpd, cct: CctDuv) -> Result<Cri> {
+    test.check_colorimetric("light")?;
+    let set = TCS_SET.as_ref().map_err(Clone::clone)?;
+    let (reference, kind) = reference_side(cct.cct_k)?;
+    cri_from_sums(&set.xyz_one(test.values()), &reference, cct, kind)
+}
+
 /// Ra and Ri of `test` against a given reference spectrum (already chosen for
-/// the test CCT `cct`); used by the lamp report, which shares the reference.
+/// the test CCT `cct`).
 pub fn cri_cie133_with_reference(
     test: &RelativeSpd,
     cct: CctDuv,
@@ -161,25 +256,33 @@ pub fn cri_cie133_with_reference(
 ) -> Result<Cri> {
     reference.check_colorimetric("CRI reference")?;
     let set = TCS_SET.as_ref().map_err(Clone::clone)?;
-    let (xt, xr) = set.xyz_pair(test.values(), reference.values());
-    let (wt, wr) = (xt.white, xr.white);
-    if !(wt.y > 0.0 && wr.y > 0.0) {
+    let side = ReferenceSide::from_sums(&set.xyz_one(reference.values()))?;
+    cri_from_sums(&set.xyz_one(test.values()), &side, cct, kind)
+}
+
+/// CIE 13.3 from the test light's sample sums and the reference side.
+fn cri_from_sums(
+    xt: &SampleXyz,
+    reference: &ReferenceSide,
+    cct: CctDuv,
+    kind: ReferenceKind,
+) -> Result<Cri> {
+    let wt = xt.white;
+    if !(wt.y > 0.0) {
         return Err(ColorError::NotColorimetric {
             what: "light".into(),
             reason: "it has no visible power".into(),
         });
     }
     let uv_t = Uv1960::from_xyz(wt);
-    let uv_r = Uv1960::from_xyz(wr);
+    let uv_r = reference.white;
     let dc = uv_t.distance(uv_r);
     let (ct, dt) = c_d(uv_t);
     let (cr, dr) = c_d(uv_r);
     let mut r = [0.0; 14];
-    for ((ri, st), sr) in r.iter_mut().zip(&xt.samples).zip(&xr.samples) {
+    for ((ri, st), e_r) in r.iter_mut().zip(&xt.samples).zip(&reference.uvw) {
         let st = st.scaled(100.0 / wt.y);
-        let sr = sr.scaled(100.0 / wr.y);
         let uv_ti = Uv1960::from_xyz(st);
-        let uv_ri = Uv1960::from_xyz(sr);
         // Von Kries in (u, v), CIE 13.3 eq. 7: test colours adapted to the reference.
         let (cti, dti) = c_d(uv_ti);
         let (kc, kd) = (cr / ct * cti, dr / dt * dti);
@@ -190,7 +293,6 @@ pub fn cri_cie133_with_reference(
         };
         // The adapted test white coincides with the reference white.
         let e_t = uvw_1964(st.y, adapted, uv_r);
-        let e_r = uvw_1964(sr.y, uv_ri, uv_r);
         let de =
             ((e_t[0] - e_r[0]).powi(2) + (e_t[1] - e_r[1]).powi(2) + (e_t[2] - e_r[2]).powi(2))
                 .sqrt();
@@ -216,6 +318,29 @@ pub fn cri_cie133_with_reference(
 mod tests {
     use super::*;
     use crate::illuminant::StandardIlluminant;
+
+    #[test]
+    fn tabulated_reference_matches_the_direct_one() {
+        // Between the Planckian nodes (2 mired apart) and on the daylight basis.
+        let set = TCS_SET.as_ref().unwrap();
+        let mut worst = 0.0f64;
+        for t in [1000.0, 1001.3, 1777.7, 2856.0, 3201.9, 4999.9, 5000.0, 6504.0, 19_500.0] {
+            let (fast, kind) = reference_side(t).unwrap();
+            let (spd, kind_d) = cri_reference(t).unwrap();
+            let direct = ReferenceSide::from_sums(&set.xyz_one(spd.values())).unwrap();
+            assert_eq!(kind, kind_d, "{t}");
+            worst = worst
+                .max((fast.white.u - direct.white.u).abs())
+                .max((fast.white.v - direct.white.v).abs());
+            for (a, b) in fast.uvw.iter().zip(&direct.uvw) {
+                for k in 0..3 {
+                    worst = worst.max((a[k] - b[k]).abs());
+                }
+            }
+        }
+        eprintln!("largest CRI reference difference {worst:e}");
+        assert!(worst < 1e-8, "largest U*V*W* difference {worst}");
+    }
 
     #[test]
     fn references_render_perfectly() {

@@ -100,23 +100,38 @@ static DAYLIGHT_BASIS: LazyLock<Option<DaylightBasis>> = LazyLock::new(|| {
     Some(DaylightBasis { s })
 });
 
+/// The weights M1, M2 of S1 and S2 in CIE daylight at `t_kelvin` (CIE 15:2018
+/// eqs. 4.10–4.12), rounded to three decimals as CIE 15:2018 prescribes.
+pub(crate) fn daylight_m1_m2(t_kelvin: f64) -> Result<(f64, f64)> {
+    let (x, y) = daylight_xy(t_kelvin)?;
+    let m = 0.0241 + 0.2562 * x - 0.7341 * y;
+    let round3 = |v: f64| (v * 1000.0).round() / 1000.0;
+    Ok((
+        round3((-1.3515 - 1.7703 * x + 5.9114 * y) / m),
+        round3((0.0300 - 31.4424 * x + 30.0717 * y) / m),
+    ))
+}
+
+/// S0, S1, S2 on the grid (CIE daylight is `S0 + M1·S1 + M2·S2`, so anything
+/// linear in the spectrum can be precomputed per basis function).
+pub(crate) fn daylight_basis() -> Result<&'static [[f64; GRID_LEN]; 3]> {
+    DAYLIGHT_BASIS
+        .as_ref()
+        .map(|b| &b.s)
+        .ok_or_else(|| ColorError::Numerical("daylight basis table failed to load".into()))
+}
+
 /// CIE daylight at correlated colour temperature `t_kelvin` (4000–25 000 K),
 /// from the S0, S1, S2 basis with M1 and M2 rounded to three decimals as
 /// CIE 15:2018 prescribes. The basis is interpolated linearly between its
 /// 5 nm points (CIE 15 recommends linear interpolation for the D series).
 /// Normalised to 100 at 560 nm (where S1 = S2 = 0).
 pub fn daylight(t_kelvin: f64) -> Result<RelativeSpd> {
-    let (x, y) = daylight_xy(t_kelvin)?;
-    let m = 0.0241 + 0.2562 * x - 0.7341 * y;
-    let round3 = |v: f64| (v * 1000.0).round() / 1000.0;
-    let m1 = round3((-1.3515 - 1.7703 * x + 5.9114 * y) / m);
-    let m2 = round3((0.0300 - 31.4424 * x + 30.0717 * y) / m);
-    let basis = DAYLIGHT_BASIS
-        .as_ref()
-        .ok_or_else(|| ColorError::Numerical("daylight basis table failed to load".into()))?;
+    let (m1, m2) = daylight_m1_m2(t_kelvin)?;
+    let basis = daylight_basis()?;
     let mut grid = [0.0; GRID_LEN];
     for (i, g) in grid.iter_mut().enumerate() {
-        *g = basis.s[0][i] + m1 * basis.s[1][i] + m2 * basis.s[2][i];
+        *g = basis[0][i] + m1 * basis[1][i] + m2 * basis[2][i];
     }
     RelativeSpd::from_grid(grid, Coverage::FULL)
 }

@@ -2,23 +2,23 @@
 //! CCT and Duv, CIE 13.3 CRI, ANSI/IES TM-30 (CIE 224) fidelity and gamut, the
 //! Academy SSI and the luminous efficacy of radiation, with warnings in words.
 //!
-//! The reference spectra at the lamp's CCT (Planckian and/or CIE daylight) are
-//! computed once and shared by CRI, TM-30 and SSI.
+//! The CCT is found once and shared by CRI, TM-30 and SSI; their references
+//! at that CCT come from Planckian tables over mired and the CIE daylight
+//! basis, not from reference spectra built per call.
 //!
 //! # References
 //! See the modules: [`crate::cct`], [`crate::cri`], [`crate::tm30`],
 //! [`crate::ssi`], [`crate::photometry`].
 
 use crate::cct::{CctDuv, CctMethod, cct_duv, uv1960_of_spd};
-use crate::cri::{CRI_DAYLIGHT_FROM_K, Cri, ReferenceKind, cri_cie133_with_reference};
+use crate::cri::{Cri, cri_with_cct};
 use crate::error::{ColorError, Result};
-use crate::illuminant::{daylight, planckian};
 use crate::observer::ObserverKind;
 use crate::photometry::luminous_efficacy_of_radiation_lm_per_w;
 use crate::spaces::{Uv1960, UvPrime};
 use crate::spectrum::RelativeSpd;
-use crate::ssi::{SSI_DAYLIGHT_FROM_K, Ssi, ssi};
-use crate::tm30::{TM30_BLEND_RANGE_K, Tm30, tm30_with_references};
+use crate::ssi::{Ssi, ssi_at_cct};
+use crate::tm30::{Tm30, tm30_with_cct};
 use crate::tristimulus::{Xyz, xyz_sums};
 
 /// The figures of one lamp spectrum.
@@ -108,33 +108,9 @@ pub fn lamp_report_with_observer(spd: &RelativeSpd, observer: ObserverKind) -> R
         }
     };
     report.cct = Some(cct);
-    let t = cct.cct_k;
-    // One Planckian and one daylight spectrum at the CCT serve all three metrics.
-    let need_planck = t < CRI_DAYLIGHT_FROM_K.max(TM30_BLEND_RANGE_K.1);
-    let need_daylight = t >= SSI_DAYLIGHT_FROM_K.min(TM30_BLEND_RANGE_K.0);
-    let planck = if need_planck {
-        Some(planckian(t)?)
-    } else {
-        None
-    };
-    let day = if need_daylight {
-        Some(daylight(t)?)
-    } else {
-        None
-    };
-    let pick = |use_daylight: bool| -> Result<(&RelativeSpd, ReferenceKind)> {
-        let (s, k) = if use_daylight {
-            (day.as_ref(), ReferenceKind::Daylight)
-        } else {
-            (planck.as_ref(), ReferenceKind::Planckian)
-        };
-        s.map(|s| (s, k)).ok_or_else(|| {
-            ColorError::Numerical(format!("no reference spectrum prepared at {t} K"))
-        })
-    };
-
-    let (cri_ref, cri_kind) = pick(t >= CRI_DAYLIGHT_FROM_K)?;
-    match cri_cie133_with_reference(spd, cct, cri_ref, cri_kind) {
+    // Each metric takes its reference side at this CCT from tables (Planckian)
+    // or basis sums (daylight); no reference spectrum is built here.
+    match cri_with_cct(spd, cct) {
         Ok(c) => {
             if let Some(w) = c.warning() {
                 report.warnings.push(w);
@@ -143,12 +119,11 @@ pub fn lamp_report_with_observer(spd: &RelativeSpd, observer: ObserverKind) -> R
         }
         Err(e) => report.warnings.push(format!("no CRI: {e}")),
     }
-    match tm30_with_references(spd, cct, planck.as_ref(), day.as_ref()) {
+    match tm30_with_cct(spd, cct) {
         Ok(tm) => report.tm30 = Some(tm),
         Err(e) => report.warnings.push(format!("no TM-30: {e}")),
     }
-    let (ssi_ref, _) = pick(t >= SSI_DAYLIGHT_FROM_K)?;
-    match ssi(spd, ssi_ref) {
+    match ssi_at_cct(spd, cct.cct_k) {
         Ok(s) => report.ssi = Some(s),
         Err(e) => report.warnings.push(format!("no SSI: {e}")),
     }
@@ -158,7 +133,7 @@ pub fn lamp_report_with_observer(spd: &RelativeSpd, observer: ObserverKind) -> R
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::illuminant::StandardIlluminant;
+    use crate::illuminant::{StandardIlluminant, planckian};
 
     #[test]
     fn report_of_a_reference_is_perfect() {

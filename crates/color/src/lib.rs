@@ -23,6 +23,7 @@ pub mod photometry;
 pub mod resample;
 pub mod rgb;
 pub mod spaces;
+mod mired_table;
 mod spectral_weights;
 pub mod spectrum;
 pub mod ssi;

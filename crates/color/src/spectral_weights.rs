@@ -1,10 +1,10 @@
-//! Tristimulus values of many reflecting samples under two lights at once, for
-//! the light-source quality metrics (CRI: 14 samples, TM-30: 99 samples).
+//! Tristimulus values of many reflecting samples under a light, for the
+//! light-source quality metrics (CRI: 14 samples, TM-30: 99 samples).
 //!
 //! `XYZ_i = Σ_λ R_i(λ) · [S(λ)·x̄(λ)]` etc.: the three light-weighted
-//! colour-matching functions of each light are formed once per call (they are
-//! small and stay in the fastest cache), then every sample's reflectance is read
-//! once and dotted with the six vectors of both lights. Reading the 99 × 401
+//! colour-matching functions are formed once per call (they are small and
+//! stay in the fastest cache), then every sample's reflectance is read once
+//! and dotted with the three vectors. Reading the 99 × 401
 //! reflectances once is cheaper than streaming a precomputed 99 × 3 × 401
 //! matrix of reflectance × CMF products, which does not fit in cache. The sums
 //! equal the direct ones up to floating-point rounding.
@@ -26,11 +26,53 @@ pub(crate) struct SampleSet {
 }
 
 /// Unnormalised tristimulus sums of every sample and of the light itself.
+#[derive(Debug, Clone)]
 pub(crate) struct SampleXyz {
     /// One entry per sample.
     pub(crate) samples: Vec<Xyz>,
     /// The light (perfect white).
     pub(crate) white: Xyz,
+}
+
+impl SampleXyz {
+    /// White, then each sample, as X, Y, Z in a row, each divided by `divisor`.
+    pub(crate) fn write_flat(&self, divisor: f64, out: &mut [f64]) {
+        let all = std::iter::once(&self.white).chain(&self.samples);
+        for (o, x) in out.chunks_exact_mut(3).zip(all) {
+            o.copy_from_slice(&[x.x / divisor, x.y / divisor, x.z / divisor]);
+        }
+    }
+
+    /// The inverse of [`SampleXyz::write_flat`] (divisor 1).
+    pub(crate) fn from_flat(v: &[f64]) -> SampleXyz {
+        let mut it = v.chunks_exact(3).map(|c| Xyz::new(c[0], c[1], c[2]));
+        let white = it.next().unwrap_or(Xyz::new(0.0, 0.0, 0.0));
+        SampleXyz {
+            white,
+            samples: it.collect(),
+        }
+    }
+
+    /// `Σ wᵢ · partᵢ`, white and sample by sample (all parts of one sample set).
+    pub(crate) fn combine(parts: &[(f64, &SampleXyz)]) -> SampleXyz {
+        let n = parts.first().map_or(0, |(_, p)| p.samples.len());
+        let mut out = SampleXyz {
+            white: Xyz::new(0.0, 0.0, 0.0),
+            samples: vec![Xyz::new(0.0, 0.0, 0.0); n],
+        };
+        let add = |acc: &mut Xyz, w: f64, x: &Xyz| {
+            acc.x += w * x.x;
+            acc.y += w * x.y;
+            acc.z += w * x.z;
+        };
+        for (w, p) in parts {
+            add(&mut out.white, *w, &p.white);
+            for (acc, x) in out.samples.iter_mut().zip(&p.samples) {
+                add(acc, *w, x);
+            }
+        }
+        out
+    }
 }
 
 impl SampleSet {
@@ -62,67 +104,51 @@ impl SampleSet {
         self.reflectance.len() / self.len.max(1)
     }
 
-    /// Per wavelength, the six products of light `a` and light `b` with x̄, ȳ, z̄.
-    fn weighted_pair(&self, a: &[f64; GRID_LEN], b: &[f64; GRID_LEN]) -> Vec<[f64; 6]> {
-        let w = self.start..self.start + self.len;
-        a[w.clone()]
+    /// Per wavelength, the three products of `light` with x̄, ȳ, z̄.
+    fn weighted(&self, light: &[f64; GRID_LEN]) -> Vec<[f64; 3]> {
+        light[self.start..self.start + self.len]
             .iter()
-            .zip(&b[w])
             .zip(self.cmf[0].iter().zip(&self.cmf[1]).zip(&self.cmf[2]))
-            .map(|((sa, sb), ((x, y), z))| [sa * x, sa * y, sa * z, sb * x, sb * y, sb * z])
+            .map(|(s, ((x, y), z))| [s * x, s * y, s * z])
             .collect()
     }
 
-    /// Tristimulus sums of every sample under light `a` and under light `b`.
-    pub(crate) fn xyz_pair(
-        &self,
-        a: &[f64; GRID_LEN],
-        b: &[f64; GRID_LEN],
-    ) -> (SampleXyz, SampleXyz) {
-        let w = self.weighted_pair(a, b);
-        let mut white = [0.0; 6];
+    /// Tristimulus sums of every sample under `light`.
+    pub(crate) fn xyz_one(&self, light: &[f64; GRID_LEN]) -> SampleXyz {
+        let w = self.weighted(light);
+        let mut white = [0.0; 3];
         for row in &w {
-            for k in 0..6 {
+            for k in 0..3 {
                 white[k] += row[k];
             }
         }
-        let count = self.sample_count();
-        let mut out_a = SampleXyz {
-            samples: Vec::with_capacity(count),
+        let mut out = SampleXyz {
+            samples: Vec::with_capacity(self.sample_count()),
             white: Xyz::new(white[0], white[1], white[2]),
         };
-        let mut out_b = SampleXyz {
-            samples: Vec::with_capacity(count),
-            white: Xyz::new(white[3], white[4], white[5]),
-        };
-        let mut push = |d: [f64; 6]| {
-            out_a.samples.push(Xyz::new(d[0], d[1], d[2]));
-            out_b.samples.push(Xyz::new(d[3], d[4], d[5]));
-        };
-        // Two samples per pass: twelve independent sums hide the adder latency.
+        // Two samples per pass: six independent sums hide the adder latency.
         let mut rows = self.reflectance.chunks_exact(2 * self.len);
         for pair in &mut rows {
             let (r0, r1) = pair.split_at(self.len);
-            let (d0, d1) = dot6_two(r0, r1, &w);
-            push(d0);
-            push(d1);
+            let (d0, d1) = dot3_two(r0, r1, &w);
+            out.samples.push(Xyz::new(d0[0], d0[1], d0[2]));
+            out.samples.push(Xyz::new(d1[0], d1[1], d1[2]));
         }
         let rest = rows.remainder();
         if !rest.is_empty() {
-            push(dot6_two(rest, rest, &w).0);
+            let (d, _) = dot3_two(rest, rest, &w);
+            out.samples.push(Xyz::new(d[0], d[1], d[2]));
         }
-        (out_a, out_b)
+        out
     }
 }
 
-/// `Σ_λ r0(λ)·w(λ)[k]` and the same for `r1`, for the six columns `k` of `w`.
-/// Fixed-size rows let the compiler keep the sums in SIMD registers without
-/// bounds checks.
-fn dot6_two(r0: &[f64], r1: &[f64], w: &[[f64; 6]]) -> ([f64; 6], [f64; 6]) {
-    let mut a0 = [0.0f64; 6];
-    let mut a1 = [0.0f64; 6];
+/// `Σ_λ r0(λ)·w(λ)[k]` and the same for `r1`, for the three columns `k` of `w`.
+fn dot3_two(r0: &[f64], r1: &[f64], w: &[[f64; 3]]) -> ([f64; 3], [f64; 3]) {
+    let mut a0 = [0.0f64; 3];
+    let mut a1 = [0.0f64; 3];
     for ((x0, x1), wk) in r0.iter().zip(r1).zip(w) {
-        for k in 0..6 {
+        for k in 0..3 {
             a0[k] += x0 * wk[k];
             a1[k] += x1 * wk[k];
         }
@@ -171,7 +197,7 @@ mod tests {
         let b = RelativeSpd::from_fn(|wl| wl / 500.0);
         let set = SampleSet::new(&r, obs, 0, GRID_LEN);
         assert_eq!(set.sample_count(), 3);
-        let (xa, xb) = set.xyz_pair(a.values(), b.values());
+        let (xa, xb) = (set.xyz_one(a.values()), set.xyz_one(b.values()));
         for (light, got) in [(&a, &xa), (&b, &xb)] {
             for (refl, g) in r.iter().zip(&got.samples) {
                 let want = xyz_sums((light * refl).values(), obs);
@@ -183,7 +209,15 @@ mod tests {
             assert!((got.white.y - w.y).abs() < 1e-9 * w.y);
         }
         assert!((dot(&[1.0, 2.0, 3.0, 4.0, 5.0], &[1.0; 5]) - 15.0).abs() < 1e-12);
-        let (d0, d1) = dot6_two(&[1.0, 2.0, 3.0], &[0.0, 1.0, 0.0], &[[1.0; 6]; 3]);
-        assert!((d0[5] - 6.0).abs() < 1e-12 && (d1[0] - 1.0).abs() < 1e-12);
+        let (d0, d1) = dot3_two(&[1.0, 2.0, 3.0], &[0.0, 1.0, 0.0], &[[1.0; 3]; 3]);
+        assert!((d0[2] - 6.0).abs() < 1e-12 && (d1[0] - 1.0).abs() < 1e-12);
+        // Linear combinations and the flat layout.
+        let c = SampleXyz::combine(&[(2.0, &xa), (-0.5, &xb)]);
+        assert!((c.samples[1].x - (2.0 * xa.samples[1].x - 0.5 * xb.samples[1].x)).abs() < 1e-9);
+        let mut flat = vec![0.0; 12];
+        xa.write_flat(2.0, &mut flat);
+        let back = SampleXyz::from_flat(&flat);
+        assert!((back.white.y - xa.white.y / 2.0).abs() < 1e-12);
+        assert!((back.samples[2].z - xa.samples[2].z / 2.0).abs() < 1e-12);
     }
 }

@@ -33,8 +33,10 @@
 use crate::cct::{CctMethod, cct_duv, uv1960_of_spd};
 use crate::cri::ReferenceKind;
 use crate::error::{ColorError, Result};
-use crate::illuminant::{daylight, planckian};
-use crate::spectrum::{GRID_START_NM, RelativeSpd};
+use crate::illuminant::{daylight, daylight_basis, daylight_m1_m2, planckian};
+use crate::mired_table::MiredTable;
+use crate::spectrum::{GRID_LEN, GRID_START_NM, RelativeSpd};
+use std::sync::LazyLock;
 
 /// First wavelength SSI uses, nm.
 pub const SSI_START_NM: u32 = 375;
@@ -66,15 +68,19 @@ pub struct Ssi {
     pub unrounded: f64,
 }
 
-/// The ten-nanometre bins of a spectrum, normalised to sum 1.
-fn binned(spd: &RelativeSpd, what: &str) -> Result<[f64; BINS]> {
+/// The ten-nanometre bins of spectral values on the grid, unnormalised.
+fn raw_bins(v: &[f64; GRID_LEN]) -> [f64; BINS] {
     let start = (SSI_START_NM - GRID_START_NM) as usize;
-    let v = spd.values();
     let mut bins = [0.0; BINS];
     for (b, out) in bins.iter_mut().enumerate() {
         let i0 = start + 10 * b;
         *out = 0.5 * v[i0] + v[i0 + 1..i0 + 10].iter().sum::<f64>() + 0.5 * v[i0 + 10];
     }
+    bins
+}
+
+/// `bins` normalised to sum 1; refused when they carry no power.
+fn normalised(mut bins: [f64; BINS], what: &str) -> Result<[f64; BINS]> {
     let total: f64 = bins.iter().sum();
     if !(total > 0.0 && total.is_finite()) {
         return Err(ColorError::NotColorimetric {
@@ -88,6 +94,45 @@ fn binned(spd: &RelativeSpd, what: &str) -> Result<[f64; BINS]> {
     Ok(bins)
 }
 
+/// The ten-nanometre bins of a spectrum, normalised to sum 1.
+fn binned(spd: &RelativeSpd, what: &str) -> Result<[f64; BINS]> {
+    normalised(raw_bins(spd.values()), what)
+}
+
+/// Normalised bins of the Planckian radiator, 1000–4000 K, 1 mired between
+/// nodes (see the table-against-direct test).
+static PLANCK_TABLE: LazyLock<Result<MiredTable>> = LazyLock::new(|| {
+    MiredTable::build((1000.0, SSI_DAYLIGHT_FROM_K), 751, BINS, |t, out| {
+        out.copy_from_slice(&binned(&planckian(t)?, "Planckian")?);
+        Ok(())
+    })
+});
+
+/// Raw bins of the daylight basis S0, S1, S2 (daylight is linear in them).
+static DAYLIGHT_BINS: LazyLock<Result<[[f64; BINS]; 3]>> =
+    LazyLock::new(|| Ok(daylight_basis()?.each_ref().map(raw_bins)));
+
+/// The default reference's normalised bins at `cct_k`, from the table or the
+/// daylight basis where they reach, from the reference spectrum otherwise.
+fn reference_bins(cct_k: f64) -> Result<[f64; BINS]> {
+    if cct_k >= SSI_DAYLIGHT_FROM_K {
+        let (m1, m2) = daylight_m1_m2(cct_k)?;
+        let [b0, b1, b2] = DAYLIGHT_BINS.as_ref().map_err(Clone::clone)?;
+        let mut bins = [0.0; BINS];
+        for (i, b) in bins.iter_mut().enumerate() {
+            *b = b0[i] + m1 * b1[i] + m2 * b2[i];
+        }
+        return normalised(bins, "SSI reference");
+    }
+    if let Ok(table) = PLANCK_TABLE.as_ref() {
+        let mut bins = [0.0; BINS];
+        if table.eval(cct_k, &mut bins) {
+            return Ok(bins);
+        }
+    }
+    binned(&ssi_reference(cct_k)?.0, "SSI reference")
+}
+
 /// SSI of `test` against `reference` (both relative; scale does not matter).
 ///
 /// Refuses spectra that are not colorimetric or carry no power in 375–675 nm.
@@ -97,8 +142,20 @@ fn binned(spd: &RelativeSpd, what: &str) -> Result<[f64; BINS]> {
 pub fn ssi(test: &RelativeSpd, reference: &RelativeSpd) -> Result<Ssi> {
     test.check_colorimetric("light")?;
     reference.check_colorimetric("SSI reference")?;
-    let t = binned(test, "light")?;
-    let r = binned(reference, "SSI reference")?;
+    ssi_of_bins(
+        &binned(test, "light")?,
+        &binned(reference, "SSI reference")?,
+    )
+}
+
+/// SSI of `test` against the default reference at a CCT already known (`cct_k`).
+pub fn ssi_at_cct(test: &RelativeSpd, cct_k: f64) -> Result<Ssi> {
+    test.check_colorimetric("light")?;
+    ssi_of_bins(&binned(test, "light")?, &reference_bins(cct_k)?)
+}
+
+/// Steps 4–7 from the normalised bins of test and reference.
+fn ssi_of_bins(t: &[f64; BINS], r: &[f64; BINS]) -> Result<Ssi> {
     let mut wd = [0.0; BINS];
     for i in 0..BINS {
         wd[i] = WEIGHTS[i] * (t[i] - r[i]) / (r[i] + 1.0 / 30.0);
@@ -134,13 +191,27 @@ pub fn ssi_reference(cct_k: f64) -> Result<(RelativeSpd, ReferenceKind)> {
 /// SSI of a light against its default reference at its own CCT (Ohno 2014).
 pub fn ssi_default(test: &RelativeSpd) -> Result<Ssi> {
     let cct = cct_duv(uv1960_of_spd(test, "light")?, CctMethod::Ohno2014)?;
-    let (reference, _) = ssi_reference(cct.cct_k)?;
-    ssi(test, &reference)
+    ssi_at_cct(test, cct.cct_k)
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn tabulated_reference_matches_the_direct_one() {
+        let mut worst = 0.0f64;
+        for t in [1000.0, 1001.3, 1777.7, 2856.0, 3201.9, 3999.9, 4000.0, 6504.0, 19_500.0] {
+            let fast = reference_bins(t).unwrap();
+            let direct = binned(&ssi_reference(t).unwrap().0, "reference").unwrap();
+            for (a, b) in fast.iter().zip(&direct) {
+                worst = worst.max((a - b).abs());
+            }
+        }
+        eprintln!("largest SSI reference difference {worst:e}");
+        // Bins are fractions of 1; SSI is published as an integer.
+        assert!(worst < 1e-10, "largest bin difference {worst}");
+    }
 
     #[test]
     fn identical_spectra_score_100_and_scale_does_not_matter() {

@@ -39,7 +39,8 @@ use crate::cam02::{Cam02Ucs, delta_e_cam02ucs};
 use crate::cct::{CctDuv, CctMethod, cct_duv, uv1960_of_spd};
 use crate::cri::ReferenceKind;
 use crate::error::{ColorError, Result};
-use crate::illuminant::{daylight, planckian};
+use crate::illuminant::{daylight, daylight_basis, daylight_m1_m2, planckian};
+use crate::mired_table::MiredTable;
 use crate::observer::Observer;
 use crate::spectral_weights::{SampleSet, SampleXyz, dot};
 use crate::spectrum::{GRID_START_NM, Reflectance, RelativeSpd};
@@ -184,6 +185,96 @@ fn polygon_area(pts: &[[f64; 2]; TM30_BINS]) -> f64 {
         / 2.0
 }
 
+/// CCT range over which the Planckian reference side is tabulated, K: every
+/// CCT the lamp metrics accept up to the end of the blend.
+const PLANCK_TABLE_K: (f64, f64) = (1000.0, TM30_BLEND_RANGE_K.1);
+/// Nodes of that table: 2 mired apart (see the table-against-direct test).
+const PLANCK_TABLE_NODES: usize = 401;
+/// Values per node before the J′a′b′: white and samples, XYZ each.
+const FLAT_XYZ: usize = 3 * (TM30_CES_COUNT + 1);
+
+/// The Planckian reference side per node: white and CES XYZ (10°) divided by
+/// the light's Y over 380–780 nm (the blend's normalisation), then the CES
+/// J′a′b′ under the Planckian itself.
+static PLANCK_TABLE: LazyLock<Result<MiredTable>> = LazyLock::new(|| {
+    let set = CES_SET.as_ref().map_err(Clone::clone)?;
+    MiredTable::build(
+        PLANCK_TABLE_K,
+        PLANCK_TABLE_NODES,
+        FLAT_XYZ + 3 * TM30_CES_COUNT,
+        |t, out| {
+            let p = planckian(t)?;
+            let sums = set.xyz_one(p.values());
+            sums.write_flat(y_380_780(&p), &mut out[..FLAT_XYZ]);
+            for (o, jab) in out[FLAT_XYZ..].chunks_exact_mut(3).zip(ces_jab(&sums)?) {
+                o.copy_from_slice(&jab);
+            }
+            Ok(())
+        },
+    )
+});
+
+/// CIE daylight is `S0 + M1·S1 + M2·S2`: the CES sums and Y (380–780 nm) of
+/// each basis function, so daylight references need no spectrum.
+static DAYLIGHT_SUMS: LazyLock<Result<[(SampleXyz, f64); 3]>> = LazyLock::new(|| {
+    let set = CES_SET.as_ref().map_err(Clone::clone)?;
+    let w = WINDOW_START..WINDOW_START + WINDOW_LEN;
+    let y_bar = &Observer::cie1931_2deg().y_bar[w.clone()];
+    Ok(daylight_basis()?.each_ref().map(|s| (set.xyz_one(s), dot(&s[w.clone()], y_bar))))
+});
+
+/// CES sums of CIE daylight at `cct_k` and its Y over 380–780 nm, from the basis.
+fn daylight_sums(cct_k: f64) -> Result<(SampleXyz, f64)> {
+    let (m1, m2) = daylight_m1_m2(cct_k)?;
+    let [(s0, y0), (s1, y1), (s2, y2)] = DAYLIGHT_SUMS.as_ref().map_err(Clone::clone)?;
+    Ok((
+        SampleXyz::combine(&[(1.0, s0), (m1, s1), (m2, s2)]),
+        y0 + m1 * y1 + m2 * y2,
+    ))
+}
+
+/// CAM02-UCS J′a′b′ of the 99 samples under the TM-30 reference at `cct_k`,
+/// with the reference's kind and daylight fraction. Planckian parts come from
+/// the mired table, daylight parts from the basis sums; outside the table the
+/// reference spectrum is built and summed directly.
+fn reference_jab(cct_k: f64) -> Result<(Vec<[f64; 3]>, ReferenceKind, f64)> {
+    let (lo, hi) = TM30_BLEND_RANGE_K;
+    if cct_k > hi {
+        let (sums, _) = daylight_sums(cct_k)?;
+        return Ok((ces_jab(&sums)?, ReferenceKind::Daylight, 1.0));
+    }
+    if let Ok(table) = PLANCK_TABLE.as_ref() {
+        let mut v = vec![0.0; table.width()];
+        if table.eval(cct_k, &mut v) {
+            if cct_k < lo {
+                let jab = v[FLAT_XYZ..]
+                    .chunks_exact(3)
+                    .map(|c| [c[0], c[1], c[2]])
+                    .collect();
+                return Ok((jab, ReferenceKind::Planckian, 0.0));
+            }
+            let m = (cct_k - lo) / (hi - lo);
+            let planck = SampleXyz::from_flat(&v[..FLAT_XYZ]);
+            let (day, yd) = daylight_sums(cct_k)?;
+            if !(yd > 0.0 && planck.white.y > 0.0) {
+                return Err(ColorError::Numerical(format!(
+                    "reference spectra at {cct_k} K have no luminance"
+                )));
+            }
+            let mix = SampleXyz::combine(&[(1.0 - m, &planck), (m / yd, &day)]);
+            return Ok((ces_jab(&mix)?, ReferenceKind::Blend, m));
+        }
+    }
+    reference_jab_direct(cct_k)
+}
+
+/// [`reference_jab`] from the reference spectrum itself.
+fn reference_jab_direct(cct_k: f64) -> Result<(Vec<[f64; 3]>, ReferenceKind, f64)> {
+    let set = CES_SET.as_ref().map_err(Clone::clone)?;
+    let (reference, kind, m) = tm30_reference(cct_k, None, None)?;
+    Ok((ces_jab(&set.xyz_one(reference.values()))?, kind, m))
+}
+
 /// TM-30-20 of a light, reference chosen at its CCT (Ohno 2014).
 ///
 /// Refuses lights that are not colorimetric or have no CCT (|Duv| > 0.05 or
@@ -193,27 +284,29 @@ fn polygon_area(pts: &[[f64; 2]; TM30_BINS]) -> f64 {
 /// - ANSI/IES TM-30-20; CIE 224:2017, doi:10.25039/TR.224.2017.
 pub fn tm30(test: &RelativeSpd) -> Result<Tm30> {
     let cct = cct_duv(uv1960_of_spd(test, "light")?, CctMethod::Ohno2014)?;
-    tm30_with_references(test, cct, None, None)
+    tm30_with_cct(test, cct)
 }
 
-/// TM-30-20 of `test` whose CCT is `cct`, reusing Planckian / daylight spectra
-/// already computed at that CCT (pass `None` to have them computed).
-pub fn tm30_with_references(
-    test: &RelativeSpd,
-    cct: CctDuv,
-    planck: Option<&RelativeSpd>,
-    day: Option<&RelativeSpd>,
-) -> Result<Tm30> {
+/// TM-30-20 of `test` whose CCT is already known (`cct`, Ohno 2014).
+pub fn tm30_with_cct(test: &RelativeSpd, cct: CctDuv) -> Result<Tm30> {
     test.check_colorimetric("light")?;
     let set = CES_SET.as_ref().map_err(Clone::clone)?;
-    let (reference, kind, daylight_fraction) = tm30_reference(cct.cct_k, planck, day)?;
-    let (sums_t, sums_r) = set.xyz_pair(test.values(), reference.values());
-    let jab_t = ces_jab(&sums_t)?;
-    let jab_r = ces_jab(&sums_r)?;
+    let (jab_r, kind, daylight_fraction) = reference_jab(cct.cct_k)?;
+    let jab_t = ces_jab(&set.xyz_one(test.values()))?;
+    tm30_from_jab(&jab_t, &jab_r, cct, kind, daylight_fraction)
+}
 
+/// The TM-30 figures from the samples' J′a′b′ under test and reference.
+fn tm30_from_jab(
+    jab_t: &[[f64; 3]],
+    jab_r: &[[f64; 3]],
+    cct: CctDuv,
+    kind: ReferenceKind,
+    daylight_fraction: f64,
+) -> Result<Tm30> {
     let de: Vec<f64> = jab_t
         .iter()
-        .zip(&jab_r)
+        .zip(jab_r)
         .map(|(t, r)| delta_e_cam02ucs(*t, *r))
         .collect();
     let mean_de = de.iter().sum::<f64>() / de.len() as f64;
@@ -228,7 +321,7 @@ pub fn tm30_with_references(
     let mut sum_t = [[0.0; 2]; TM30_BINS];
     let mut sum_r = [[0.0; 2]; TM30_BINS];
     let mut sum_de = [0.0; TM30_BINS];
-    for (((t, r), d), hue_deg) in jab_t.iter().zip(&jab_r).zip(&de).zip(&hues) {
+    for (((t, r), d), hue_deg) in jab_t.iter().zip(jab_r).zip(&de).zip(&hues) {
         let j = ((hue_deg / 22.5).floor() as usize).min(TM30_BINS - 1);
         count[j] += 1;
         sum_t[j][0] += t[1];
@@ -310,15 +403,39 @@ mod tests {
         for t in [2700.0, 4500.0, 6500.0] {
             let (spd, kind, m) = tm30_reference(t, None, None).unwrap();
             let cct = cct_duv(uv1960_of_spd(&spd, "ref").unwrap(), CctMethod::Ohno2014).unwrap();
-            let r = tm30_with_references(&spd, CctDuv { cct_k: t, ..cct }, None, None).unwrap();
+            let r = tm30_with_cct(&spd, CctDuv { cct_k: t, ..cct }).unwrap();
             assert!((r.rf - 100.0).abs() < 1e-3, "{t}: {}", r.rf);
-            assert!((r.rg - 100.0).abs() < 1e-9, "{t}: {}", r.rg);
-            assert!(r.rcs_hj.iter().all(|v| v.abs() < 1e-9));
+            // The reference side is interpolated (Planckian) or summed from the
+            // daylight basis: equal to the test side to far below print precision.
+            assert!((r.rg - 100.0).abs() < 1e-6, "{t}: {}", r.rg);
+            assert!(r.rcs_hj.iter().all(|v| v.abs() < 1e-6), "{t}: {:?}", r.rcs_hj);
             assert_eq!(
                 kind == ReferenceKind::Blend,
                 (0.0..=1.0).contains(&m) && (t - 4500.0).abs() < 1e-9
             );
         }
+    }
+
+    #[test]
+    fn tabulated_reference_matches_the_direct_one() {
+        // Between the nodes (2 mired apart), across the blend and in daylight.
+        let mut worst = 0.0f64;
+        for t in [
+            1000.0, 1001.3, 1234.5, 1777.7, 2856.0, 3201.9, 3999.99, 4000.0, 4321.0, 4999.5,
+            5000.0, 5003.0, 6504.0, 9999.0, 19_500.0,
+        ] {
+            let (fast, kind, m) = reference_jab(t).unwrap();
+            let (direct, kind_d, m_d) = reference_jab_direct(t).unwrap();
+            assert_eq!(kind, kind_d, "{t}");
+            assert!((m - m_d).abs() < 1e-12, "{t}");
+            for (a, b) in fast.iter().zip(&direct) {
+                for k in 0..3 {
+                    worst = worst.max((a[k] - b[k]).abs());
+                }
+            }
+        }
+        eprintln!("largest TM-30 reference difference {worst:e}");
+        assert!(worst < 1e-7, "largest J′a′b′ difference {worst}");
     }
 
     #[test]
