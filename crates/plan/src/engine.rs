@@ -22,7 +22,7 @@ use crate::evaluation::{
 use crate::model::{Plan, Source, SourceId, SourceRole, ZoneLevel};
 use crate::render::CameraStage;
 use crate::resolve;
-use lampwright_color::cct::{CctMethod, cct_duv_of_spd, mired};
+use lampwright_color::cct::{CctDuv, CctMethod, cct_duv_of_spd, mired};
 use lampwright_color::observer::{Observer, v_lambda};
 use lampwright_color::photometry::{ev100_from_illuminance_lux, illuminance_lux};
 use lampwright_color::spaces::Uv1960;
@@ -251,15 +251,23 @@ fn light_figures(mix: &SpectralIrradiance, zone: &str, warnings: &mut Vec<String
         warnings.push(e.to_string());
         return fig;
     }
-    match cct_duv_of_spd(&spd, CctMethod::Ohno2014) {
+    // One CCT serves CRI, TM-30 and SSI (each takes its reference at it).
+    let cct = match cct_duv_of_spd(&spd, CctMethod::Ohno2014) {
         Ok(c) => {
             fig.cct_k = Some(c.cct_k);
             fig.duv = Some(c.duv);
             fig.mired = mired(c.cct_k).ok();
+            c
         }
-        Err(e) => warnings.push(format!("{zone}: no CCT: {e}")),
-    }
-    match lampwright_color::cri::cri_cie133(&spd) {
+        Err(e) => {
+            warnings.push(format!("{zone}: no CCT: {e}"));
+            for what in ["CRI", "TM-30 figures", "SSI"] {
+                warnings.push(format!("{zone}: no {what}: {e}"));
+            }
+            return fig;
+        }
+    };
+    match lampwright_color::cri::cri_with_cct(&spd, cct) {
         Ok(c) => {
             if !c.meaningful {
                 warnings.push(format!(
@@ -271,16 +279,22 @@ fn light_figures(mix: &SpectralIrradiance, zone: &str, warnings: &mut Vec<String
         }
         Err(e) => warnings.push(format!("{zone}: no CRI: {e}")),
     }
-    tm30_figures(&spd, zone, &mut fig, warnings);
-    match lampwright_color::ssi::ssi_default(&spd) {
+    tm30_figures(&spd, cct, zone, &mut fig, warnings);
+    match lampwright_color::ssi::ssi_at_cct(&spd, cct.cct_k) {
         Ok(s) => fig.ssi = Some(s.value),
         Err(e) => warnings.push(format!("{zone}: no SSI: {e}")),
     }
     fig
 }
 
-fn tm30_figures(spd: &RelativeSpd, zone: &str, fig: &mut LightFigures, warnings: &mut Vec<String>) {
-    match lampwright_color::tm30::tm30(spd) {
+fn tm30_figures(
+    spd: &RelativeSpd,
+    cct: CctDuv,
+    zone: &str,
+    fig: &mut LightFigures,
+    warnings: &mut Vec<String>,
+) {
+    match lampwright_color::tm30::tm30_with_cct(spd, cct) {
         Ok(t) => {
             fig.tm30_rf = Some(t.rf);
             fig.tm30_rg = Some(t.rg);
