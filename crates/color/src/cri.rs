@@ -166,7 +166,7 @@ impl ReferenceSide {
     /// From the sample sums under the reference.
     fn from_sums(xr: &SampleXyz) -> Result<ReferenceSide> {
         let wr = xr.white;
-        if !(wr.y > 0.0) {
+        if wr.y.is_nan() || wr.y <= 0.0 {
             return Err(ColorError::NotColorimetric {
                 what: "CRI reference".into(),
                 reason: "it has no visible power".into(),
@@ -234,7 +234,10 @@ fn reference_side(cct_k: f64) -> Result<(ReferenceSide, ReferenceKind)> {
     }
     let (reference, kind) = cri_reference(cct_k)?;
     let set = TCS_SET.as_ref().map_err(Clone::clone)?;
-    Ok((ReferenceSide::from_sums(&set.xyz_one(reference.values()))?, kind))
+    Ok((
+        ReferenceSide::from_sums(&set.xyz_one(reference.values()))?,
+        kind,
+    ))
 }
 
 /// Ra and Ri of `test` whose CCT is already known (`cct`, Ohno 2014), against
@@ -268,7 +271,7 @@ fn cri_from_sums(
     kind: ReferenceKind,
 ) -> Result<Cri> {
     let wt = xt.white;
-    if !(wt.y > 0.0) {
+    if wt.y.is_nan() || wt.y <= 0.0 {
         return Err(ColorError::NotColorimetric {
             what: "light".into(),
             reason: "it has no visible power".into(),
@@ -324,7 +327,9 @@ mod tests {
         // Between the Planckian nodes (2 mired apart) and on the daylight basis.
         let set = TCS_SET.as_ref().unwrap();
         let mut worst = 0.0f64;
-        for t in [1000.0, 1001.3, 1777.7, 2856.0, 3201.9, 4999.9, 5000.0, 6504.0, 19_500.0] {
+        for t in [
+            1000.0, 1001.3, 1777.7, 2856.0, 3201.9, 4999.9, 5000.0, 6504.0, 19_500.0,
+        ] {
             let (fast, kind) = reference_side(t).unwrap();
             let (spd, kind_d) = cri_reference(t).unwrap();
             let direct = ReferenceSide::from_sums(&set.xyz_one(spd.values())).unwrap();

@@ -103,12 +103,18 @@ static DAYLIGHT_BASIS: LazyLock<Option<DaylightBasis>> = LazyLock::new(|| {
 /// The weights M1, M2 of S1 and S2 in CIE daylight at `t_kelvin` (CIE 15:2018
 /// eqs. 4.10–4.12), rounded to three decimals as CIE 15:2018 prescribes.
 pub(crate) fn daylight_m1_m2(t_kelvin: f64) -> Result<(f64, f64)> {
+    let round3 = |v: f64| (v * 1000.0).round() / 1000.0;
+    let (m1, m2) = daylight_m1_m2_unrounded(t_kelvin)?;
+    Ok((round3(m1), round3(m2)))
+}
+
+/// [`daylight_m1_m2`] before rounding: smooth in `t_kelvin`.
+pub(crate) fn daylight_m1_m2_unrounded(t_kelvin: f64) -> Result<(f64, f64)> {
     let (x, y) = daylight_xy(t_kelvin)?;
     let m = 0.0241 + 0.2562 * x - 0.7341 * y;
-    let round3 = |v: f64| (v * 1000.0).round() / 1000.0;
     Ok((
-        round3((-1.3515 - 1.7703 * x + 5.9114 * y) / m),
-        round3((0.0300 - 31.4424 * x + 30.0717 * y) / m),
+        (-1.3515 - 1.7703 * x + 5.9114 * y) / m,
+        (0.0300 - 31.4424 * x + 30.0717 * y) / m,
     ))
 }
 

@@ -201,7 +201,9 @@ mod tests {
     #[test]
     fn tabulated_reference_matches_the_direct_one() {
         let mut worst = 0.0f64;
-        for t in [1000.0, 1001.3, 1777.7, 2856.0, 3201.9, 3999.9, 4000.0, 6504.0, 19_500.0] {
+        for t in [
+            1000.0, 1001.3, 1777.7, 2856.0, 3201.9, 3999.9, 4000.0, 6504.0, 19_500.0,
+        ] {
             let fast = reference_bins(t).unwrap();
             let direct = binned(&ssi_reference(t).unwrap().0, "reference").unwrap();
             for (a, b) in fast.iter().zip(&direct) {
