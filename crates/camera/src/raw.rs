@@ -19,6 +19,7 @@ use crate::error::{CameraError, Result};
 use crate::fit_linear::is_positive;
 use crate::sensitivities::CameraSensitivities;
 use lampwright_color::observer::Observer;
+use lampwright_color::weighted_sums::weighted_sums_6;
 use lampwright_color::{GRID_LEN, Reflectance, RelativeSpd, Xyz};
 
 /// Raw linear camera signal of one subject, `[R, G, B]`, with the perfect
@@ -38,8 +39,8 @@ pub struct SubjectSignal {
 /// then costs one pass over the grid.
 #[derive(Debug, Clone)]
 pub struct SceneResponse {
-    /// Per grid wavelength: `S·r̄/k_g, S·ḡ/k_g, S·b̄/k_g, S·x̄/k_y, S·ȳ/k_y, S·z̄/k_y`.
-    weights: Box<[[f64; 6]]>,
+    /// Over the grid: `S·r̄/k_g, S·ḡ/k_g, S·b̄/k_g, S·x̄/k_y, S·ȳ/k_y, S·z̄/k_y`.
+    weights: [Vec<f64>; 6],
     white: SubjectSignal,
 }
 
@@ -69,48 +70,59 @@ impl SceneResponse {
                 "the scene light has no visible power".into(),
             ));
         }
-        let mut weights = vec![[0.0; 6]; GRID_LEN].into_boxed_slice();
-        for (i, w) in weights.iter_mut().enumerate() {
-            *w = [
-                l[i] * r[i] / k_g,
-                l[i] * g[i] / k_g,
-                l[i] * b[i] / k_g,
-                l[i] * observer.x_bar[i] / k_y,
-                l[i] * observer.y_bar[i] / k_y,
-                l[i] * observer.z_bar[i] / k_y,
-            ];
-        }
+        let weight = |c: &[f64; GRID_LEN], k: f64| -> Vec<f64> {
+            l.iter().zip(c).map(|(l, c)| l * c / k).collect()
+        };
+        let weights = [
+            weight(r, k_g),
+            weight(g, k_g),
+            weight(b, k_g),
+            weight(&observer.x_bar, k_y),
+            weight(&observer.y_bar, k_y),
+            weight(&observer.z_bar, k_y),
+        ];
         let mut response = SceneResponse {
             weights,
             white: SubjectSignal::default(),
         };
-        response.white = response.integrate(&[1.0; GRID_LEN]);
+        response.white = response.integrate(&[&[1.0; GRID_LEN]])[0];
         Ok(response)
     }
 
-    fn integrate(&self, reflectance: &[f64; GRID_LEN]) -> SubjectSignal {
-        let mut acc = [0.0; 6];
-        for (w, rho) in self.weights.iter().zip(reflectance.iter()) {
-            for k in 0..6 {
-                acc[k] += w[k] * rho;
-            }
-        }
-        SubjectSignal {
-            raw_rgb: [acc[0], acc[1], acc[2]],
-            xyz: Xyz::new(acc[3], acc[4], acc[5]),
-        }
+    fn integrate(&self, reflectances: &[&[f64]]) -> Vec<SubjectSignal> {
+        let w = &self.weights;
+        weighted_sums_6(reflectances, [&w[0], &w[1], &w[2], &w[3], &w[4], &w[5]])
+            .into_iter()
+            .map(|acc| SubjectSignal {
+                raw_rgb: [acc[0], acc[1], acc[2]],
+                xyz: Xyz::new(acc[3], acc[4], acc[5]),
+            })
+            .collect()
     }
 
     /// Raw signal and XYZ of one subject.
     #[must_use]
     pub fn subject(&self, reflectance: &Reflectance) -> SubjectSignal {
-        self.integrate(reflectance.values())
+        self.integrate(&[reflectance.values()])[0]
     }
 
     /// Raw signal and XYZ of each subject, in order.
     #[must_use]
     pub fn subjects(&self, reflectances: &[Reflectance]) -> Vec<SubjectSignal> {
-        reflectances.iter().map(|r| self.subject(r)).collect()
+        self.subjects_of(reflectances)
+    }
+
+    /// Raw signal and XYZ of each subject, in order (any collection of reflectances).
+    #[must_use]
+    pub fn subjects_of<'a>(
+        &self,
+        reflectances: impl IntoIterator<Item = &'a Reflectance>,
+    ) -> Vec<SubjectSignal> {
+        let rows: Vec<&[f64]> = reflectances
+            .into_iter()
+            .map(|r| r.values().as_slice())
+            .collect();
+        self.integrate(&rows)
     }
 
     /// The perfect reflecting diffuser: raw `[R, 1, B]` and XYZ with Y = 1.

@@ -30,6 +30,7 @@ pub mod ssi;
 pub mod table;
 pub mod tm30;
 pub mod tristimulus;
+pub mod weighted_sums;
 
 pub use error::{ColorError, Result};
 pub use spectrum::{

@@ -12,6 +12,7 @@
 use crate::observer::Observer;
 use crate::spectrum::{GRID_LEN, Reflectance};
 use crate::tristimulus::Xyz;
+use crate::weighted_sums::weighted_sums_3;
 
 /// Reflectances of a sample set over a window of the grid, with an observer.
 pub(crate) struct SampleSet {
@@ -100,6 +101,7 @@ impl SampleSet {
     }
 
     /// Number of samples.
+    #[cfg(test)]
     pub(crate) fn sample_count(&self) -> usize {
         self.reflectance.len() / self.len.max(1)
     }
@@ -116,96 +118,14 @@ impl SampleSet {
     pub(crate) fn xyz_one(&self, light: &[f64; GRID_LEN]) -> SampleXyz {
         let w = self.weighted(light);
         let white = w.each_ref().map(|c| c.iter().sum::<f64>());
-        let mut sums = vec![[0.0; 3]; self.sample_count()];
-        pulp::Arch::new().dispatch(SampleSums {
-            reflectance: &self.reflectance,
-            len: self.len,
-            weights: [&w[0], &w[1], &w[2]],
-            out: &mut sums,
-        });
+        let rows: Vec<&[f64]> = self.reflectance.chunks_exact(self.len.max(1)).collect();
+        let sums = weighted_sums_3(&rows, [&w[0], &w[1], &w[2]]);
         SampleXyz {
             samples: sums
                 .into_iter()
                 .map(|[x, y, z]| Xyz::new(x, y, z))
                 .collect(),
             white: Xyz::new(white[0], white[1], white[2]),
-        }
-    }
-}
-
-/// `out[i][k] = Σ_λ reflectance_i(λ) · weights[k](λ)` for every sample `i`.
-///
-/// Vectorised over wavelength with the widest instructions the processor has,
-/// chosen at run time (`pulp`: AVX2 with fused multiply–add where present,
-/// SSE2 or scalar otherwise), three samples per pass so that nine independent
-/// sums hide the latency of the multiply–adds. Summation order differs from
-/// a plain loop only by rounding (≈ 1e-16 relative).
-struct SampleSums<'a> {
-    /// Row-major, `out.len() × len`.
-    reflectance: &'a [f64],
-    len: usize,
-    weights: [&'a [f64]; 3],
-    out: &'a mut [[f64; 3]],
-}
-
-impl pulp::WithSimd for SampleSums<'_> {
-    type Output = ();
-
-    // pulp compiles this body once per instruction set; it must inline into
-    // the dispatcher's feature-enabled function to get those instructions.
-    #[allow(clippy::inline_always)]
-    #[inline(always)]
-    fn with_simd<S: pulp::Simd>(self, simd: S) {
-        let SampleSums {
-            reflectance,
-            len,
-            weights,
-            out,
-        } = self;
-        if len == 0 {
-            return;
-        }
-        let w = weights.map(|c| S::as_simd_f64s(c));
-        let zero = simd.splat_f64s(0.0);
-        let finish = |acc: [S::f64s; 3], row: &[f64], tail_start: usize| {
-            let mut d = [0.0; 3];
-            for k in 0..3 {
-                d[k] = simd.reduce_sum_f64s(acc[k])
-                    + row[tail_start..]
-                        .iter()
-                        .zip(w[k].1)
-                        .map(|(r, c)| r * c)
-                        .sum::<f64>();
-            }
-            d
-        };
-        let (wx, wy, wz) = (w[0].0, w[1].0, w[2].0);
-        let tail_start = len - w[0].1.len();
-        // Three samples per pass: nine independent sums, and each weight
-        // vector loaded once for three multiply–adds.
-        for (rows, outs) in reflectance.chunks(3 * len).zip(out.chunks_mut(3)) {
-            let n = outs.len();
-            let r = [0, 1, 2].map(|j| {
-                let j = j.min(n - 1);
-                &rows[j * len..(j + 1) * len]
-            });
-            let v = r.map(|x| S::as_simd_f64s(x).0);
-            let mut acc = [[zero; 3]; 3];
-            for (((x0, x1), x2), (cx, (cy, cz))) in v[0]
-                .iter()
-                .zip(v[1])
-                .zip(v[2])
-                .zip(wx.iter().zip(wy.iter().zip(wz)))
-            {
-                for (a, x) in acc.iter_mut().zip([x0, x1, x2]) {
-                    a[0] = simd.mul_add_e_f64s(*x, *cx, a[0]);
-                    a[1] = simd.mul_add_e_f64s(*x, *cy, a[1]);
-                    a[2] = simd.mul_add_e_f64s(*x, *cz, a[2]);
-                }
-            }
-            for ((o, a), row) in outs.iter_mut().zip(acc).zip(r) {
-                *o = finish(a, row, tail_start);
-            }
         }
     }
 }

@@ -141,14 +141,12 @@ fn zone_signals(
     if raw_g > DARK && y > DARK && light.check_colorimetric("zone").is_ok() {
         let scene = SceneResponse::new(camera, &light, Observer::cie1931_2deg())?;
         let (k_raw, k_y) = (raw_g / main.0, y / main.1);
-        Ok(subjects
-            .iter()
-            .map(|s| {
-                let sig = scene.subject(&s.reflectance);
-                SubjectSignal {
-                    raw_rgb: sig.raw_rgb.map(|v| v * k_raw),
-                    xyz: sig.xyz.scaled(k_y),
-                }
+        Ok(scene
+            .subjects_of(subjects.iter().map(|s| &s.reflectance))
+            .into_iter()
+            .map(|sig| SubjectSignal {
+                raw_rgb: sig.raw_rgb.map(|v| v * k_raw),
+                xyz: sig.xyz.scaled(k_y),
             })
             .collect())
     } else {
