@@ -26,6 +26,7 @@
 //!   scientific use*: CAM02-UCS with LA = 100 cd/m², Yb = 20, average surround, D = 1.
 
 use crate::adaptation::{Cat, degree_of_adaptation_cie159};
+use crate::batch_math::{ln_in_place, pow_nonnegative_in_place};
 use crate::error::{ColorError, Result};
 use crate::spaces::hue_angle_deg;
 use crate::tristimulus::Xyz;
@@ -426,6 +427,84 @@ impl Cam02Ucs {
     }
 }
 
+impl Cam02Ucs {
+    /// J′, a′, b′ of many colours: the same as [`Cam02Ucs::jab`] on each (to
+    /// a few units in the last place), with the powers and logarithms of all
+    /// colours computed together by the vectorised [`crate::batch_math`].
+    #[must_use]
+    pub fn jab_many(&self, xyz: &[Xyz]) -> Vec<[f64; 3]> {
+        let cam = &self.cam;
+        let n = xyz.len();
+        // Eqs. 2.11–2.15: |F_L·R/100|^0.42 for the three channels of every colour.
+        let mut linear = Vec::with_capacity(3 * n);
+        for x in xyz {
+            let v = [x.x, x.y, x.z];
+            for row in &cam.to_hpe {
+                linear.push(row[0] * v[0] + row[1] * v[1] + row[2] * v[2]);
+            }
+        }
+        let mut p: Vec<f64> = linear.iter().map(|x| cam.fl_100 * x.abs()).collect();
+        pow_positive_many(&mut p, 0.42);
+        // Eqs. 2.16–2.20 and the eccentricity term of 2.23.
+        let mut ratio = vec![0.0; n];
+        let mut t = vec![0.0; n];
+        let mut ab = vec![[0.0; 3]; n];
+        for i in 0..n {
+            let c = [0, 1, 2].map(|k| {
+                let q = p[3 * i + k];
+                (400.0 * q / (27.13 + q)).copysign(linear[3 * i + k]) + 0.1
+            });
+            let [ra, ga, ba] = c;
+            let a = ra - 12.0 * ga / 11.0 + ba / 11.0;
+            let b = (ra + ga - 2.0 * ba) / 9.0;
+            let r = (a * a + b * b).sqrt();
+            let achromatic = ((2.0 * ra + ga + ba / 20.0 - 0.305) * cam.n_bb).max(0.0);
+            ratio[i] = achromatic / cam.a_w;
+            let denom = ra + ga + 21.0 / 20.0 * ba;
+            t[i] = if r > 0.0 && denom > 0.0 {
+                let cos_h2 = (a * COS_2 - b * SIN_2) / r;
+                cam.t_factor * 0.25 * (cos_h2 + 3.8) * r / denom
+            } else {
+                0.0
+            };
+            ab[i] = [a, b, r];
+        }
+        pow_positive_many(&mut ratio, cam.cz / 2.0);
+        pow_positive_many(&mut t, 0.9);
+        // Eq. 2.24 and the UCS compression of M (ln(1 + c₂·M)).
+        let mut m_arg: Vec<f64> = t
+            .iter()
+            .zip(&ratio)
+            .map(|(t, sqrt_j)| 1.0 + UCS_C2 * (t * sqrt_j * cam.chroma_factor * cam.fl_quarter))
+            .collect();
+        ln_in_place(&mut m_arg);
+        ratio
+            .iter()
+            .zip(&m_arg)
+            .zip(&ab)
+            .map(|((sqrt_j, ln_m), [a, b, r])| {
+                let jp = j_prime(100.0 * sqrt_j * sqrt_j);
+                if *r > 0.0 {
+                    let k = ln_m / UCS_C2 / r;
+                    [jp, k * a, k * b]
+                } else {
+                    [jp, 0.0, 0.0]
+                }
+            })
+            .collect()
+    }
+}
+
+/// `x^p` for x > 0 and 0 otherwise (NaN included), in place, as [`pow_positive`].
+fn pow_positive_many(x: &mut [f64], p: f64) {
+    for v in x.iter_mut() {
+        if v.is_nan() {
+            *v = 0.0;
+        }
+    }
+    pow_nonnegative_in_place(x, p);
+}
+
 /// CAM02-UCS J′a′b′ of `xyz` under the TM-30 / CIE 224 conditions (10° observer
 /// XYZ with the white at Y = 100, LA = 100 cd/m², Yb = 20, average surround,
 /// D = 1). Builds the model on every call; for many samples under one white,
@@ -461,6 +540,37 @@ mod tests {
         Cam02::new(WHITE, vc)
             .unwrap()
             .appearance(Xyz::new(19.01, 20.0, 21.78))
+    }
+
+    #[test]
+    fn many_at_once_equal_one_at_a_time() {
+        let ucs = Cam02Ucs::tm30(Xyz::new(95.047, 100.0, 108.883)).unwrap();
+        let mut colours = vec![
+            Xyz::new(0.0, 0.0, 0.0),
+            Xyz::new(95.047, 100.0, 108.883),
+            Xyz::new(-1.0, 0.5, 2.0),
+            Xyz::new(1e-9, 1e-9, 1e-9),
+            Xyz::new(400.0, 300.0, 10.0),
+        ];
+        for i in 0..300 {
+            let u = f64::from(i);
+            colours.push(Xyz::new(
+                50.0 + 45.0 * (u * 0.37).sin(),
+                40.0 + 39.0 * (u * 0.11).cos(),
+                60.0 + 55.0 * (u * 0.23).sin(),
+            ));
+        }
+        let many = ucs.jab_many(&colours);
+        assert_eq!(many.len(), colours.len());
+        for (c, got) in colours.iter().zip(&many) {
+            let want = ucs.jab(*c);
+            for k in 0..3 {
+                assert!(
+                    (got[k] - want[k]).abs() <= 1e-13 * (1.0 + want[k].abs()),
+                    "{c:?}: {got:?} vs {want:?}"
+                );
+            }
+        }
     }
 
     #[test]

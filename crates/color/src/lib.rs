@@ -10,6 +10,7 @@
 //! its valid input range and the published reference it implements.
 
 pub mod adaptation;
+pub mod batch_math;
 pub mod cam02;
 pub mod cct;
 pub mod cri;

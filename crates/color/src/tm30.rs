@@ -47,6 +47,7 @@ use crate::observer::Observer;
 use crate::spectral_weights::{SampleSet, SampleXyz, dot};
 use crate::spectrum::{GRID_START_NM, Reflectance, RelativeSpd};
 use crate::table::AssetTable;
+use crate::tristimulus::Xyz;
 use std::sync::LazyLock;
 
 /// Below the first bound the reference is Planckian, above the second CIE daylight, K.
@@ -173,7 +174,8 @@ fn ces_jab(sums: &SampleXyz) -> Result<Vec<[f64; 3]>> {
     }
     let k = 100.0 / white.y;
     let ucs = Cam02Ucs::tm30(white.scaled(k))?;
-    Ok(sums.samples.iter().map(|x| ucs.jab(x.scaled(k))).collect())
+    let scaled: Vec<Xyz> = sums.samples.iter().map(|x| x.scaled(k)).collect();
+    Ok(ucs.jab_many(&scaled))
 }
 
 /// Twice the signed area of the polygon through `pts` in order (shoelace).
