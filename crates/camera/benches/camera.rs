@@ -123,6 +123,13 @@ fn bench_colour_parts(c: &mut Criterion) {
                 .sum::<f64>()
         });
     });
+    let pairs: Vec<(Lab, Lab)> = labs.windows(2).map(|p| (p[0], p[1])).collect();
+    c.bench_function("context_de2000_many_100", |b| {
+        b.iter(|| lampwright_color::delta_e::delta_e_ciede2000_many(black_box(&pairs)));
+    });
+    c.bench_function("context_lab_many_100", |b| {
+        b.iter(|| Lab::many_from_xyz(black_box(&xs[..100]), w));
+    });
 }
 
 criterion_group!(benches, bench_fits, bench_compare, bench_colour_parts);

@@ -34,7 +34,7 @@ use crate::sensitivities::CameraSensitivities;
 use crate::training::TrainingSet;
 use crate::white_balance::{ResolvedWhiteBalance, WhiteBalance, resolve_white_balance};
 use lampwright_color::adaptation::apply_matrix;
-use lampwright_color::delta_e::{ciede2000_lower_bound, delta_e_ciede2000};
+use lampwright_color::delta_e::{ciede2000_lower_bound, delta_e_ciede2000, delta_e_ciede2000_many};
 use lampwright_color::observer::Observer;
 use lampwright_color::spaces::Lab;
 use lampwright_color::{Reflectance, RelativeSpd, Xyz};
@@ -239,28 +239,50 @@ impl CameraPipeline {
                 ColorCorrection::blend(a, d65, estimated_cct_k.map_or(1.0, dual_illuminant_weight))?
             }
         };
-        let subjects: Vec<SubjectComparison> = signals
+        // Per subject: balance and matrix (camera), adaptation (eye); then the
+        // CIELAB conversions and CIEDE2000 of all subjects at once.
+        let balanced: Vec<[f64; 3]> = signals
             .iter()
-            .map(|s| {
-                let balanced_rgb = white_balance.gains.apply(s.raw_rgb);
-                let camera_xyz = Xyz::from_array(correction.apply(balanced_rgb));
-                let eye_xyz = apply_matrix(&self.eye_to_d65, s.xyz);
-                let eye_lab = Lab::from_xyz(eye_xyz, self.white);
-                let camera_lab = Lab::from_xyz(camera_xyz, self.white);
-                SubjectComparison {
-                    raw_rgb: s.raw_rgb,
-                    balanced_rgb,
-                    eye_xyz_as_lit: s.xyz,
-                    eye_xyz,
-                    camera_xyz,
-                    eye_lab_as_lit: Lab::from_xyz(s.xyz, self.white),
-                    eye_lab,
-                    camera_lab,
-                    eye_display: self.display.color(eye_xyz),
-                    eye_display_as_lit: self.display.color(s.xyz),
-                    camera_display: self.display.color(camera_xyz),
-                    delta_e_ciede2000: delta_e_ciede2000(eye_lab, camera_lab),
-                }
+            .map(|s| white_balance.gains.apply(s.raw_rgb))
+            .collect();
+        let camera_xyz: Vec<Xyz> = balanced
+            .iter()
+            .map(|rgb| Xyz::from_array(correction.apply(*rgb)))
+            .collect();
+        let eye_xyz: Vec<Xyz> = signals
+            .iter()
+            .map(|s| apply_matrix(&self.eye_to_d65, s.xyz))
+            .collect();
+        let as_lit: Vec<Xyz> = signals.iter().map(|s| s.xyz).collect();
+        let n = signals.len();
+        let all: Vec<Xyz> = [&camera_xyz, &eye_xyz, &as_lit]
+            .into_iter()
+            .flatten()
+            .copied()
+            .collect();
+        let labs = Lab::many_from_xyz(&all, self.white);
+        let (camera_lab, rest) = labs.split_at(n);
+        let (eye_lab, eye_lab_as_lit) = rest.split_at(n);
+        let pairs: Vec<(Lab, Lab)> = eye_lab
+            .iter()
+            .copied()
+            .zip(camera_lab.iter().copied())
+            .collect();
+        let delta_e = delta_e_ciede2000_many(&pairs);
+        let subjects: Vec<SubjectComparison> = (0..signals.len())
+            .map(|i| SubjectComparison {
+                raw_rgb: signals[i].raw_rgb,
+                balanced_rgb: balanced[i],
+                eye_xyz_as_lit: as_lit[i],
+                eye_xyz: eye_xyz[i],
+                camera_xyz: camera_xyz[i],
+                eye_lab_as_lit: eye_lab_as_lit[i],
+                eye_lab: eye_lab[i],
+                camera_lab: camera_lab[i],
+                eye_display: self.display.color(eye_xyz[i]),
+                eye_display_as_lit: self.display.color(as_lit[i]),
+                camera_display: self.display.color(camera_xyz[i]),
+                delta_e_ciede2000: delta_e[i],
             })
             .collect();
         let des: Vec<f64> = subjects.iter().map(|s| s.delta_e_ciede2000).collect();

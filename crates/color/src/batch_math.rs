@@ -1,4 +1,4 @@
-//! `exp`, `ln` and powers over whole arrays, written so that the compiler
+//! `exp`, `ln`, powers, `atan2` and `sin` over whole arrays, written so that the compiler
 //! vectorises them (no calls, no branches in the main loop), and run through
 //! `pulp`'s run-time dispatch so that AVX2/FMA is used where the processor
 //! has it. They serve the hot loops that apply the same non-linearity to many
@@ -154,6 +154,102 @@ pub fn pow_nonnegative_in_place(x: &mut [f64], p: f64) {
     }
 }
 
+/// (−1)ⁿ/(2n + 1) for n = 1 … 23: atan u = u·(1 + Σ cₙ u²ⁿ) for |u| ≤ √2 − 1
+/// (truncation below 1e-18).
+const ATAN_COEFFS: [f64; 23] = {
+    let mut c = [0.0; 23];
+    let mut n = 0;
+    while n < 23 {
+        let sign = if n % 2 == 0 { -1.0 } else { 1.0 };
+        c[n] = sign / (2 * n + 3) as f64;
+        n += 1;
+    }
+    c
+};
+
+/// atan2 for finite (y, x) not both zero (no special cases).
+#[allow(clippy::inline_always)] // must inline into the dispatched loop to vectorise
+#[inline(always)]
+fn atan2_core(y: f64, x: f64) -> f64 {
+    use std::f64::consts::{FRAC_PI_2, FRAC_PI_4, PI};
+    let (ax, ay) = (x.abs(), y.abs());
+    let swap = ay > ax;
+    let (num, den) = if swap { (ax, ay) } else { (ay, ax) };
+    let t = num / den;
+    // atan t = π/4 + atan((t − 1)/(t + 1)) brings t ∈ (√2 − 1, 1] to |u| ≤ √2 − 1.
+    let reduce = t > std::f64::consts::SQRT_2 - 1.0;
+    let u = if reduce { (t - 1.0) / (t + 1.0) } else { t };
+    let z = u * u;
+    let mut p = ATAN_COEFFS[22];
+    for c in ATAN_COEFFS[..22].iter().rev() {
+        p = p * z + c;
+    }
+    let atan_u = u + u * z * p;
+    let a = if reduce { FRAC_PI_4 + atan_u } else { atan_u };
+    let a = if swap { FRAC_PI_2 - a } else { a };
+    let a = if x < 0.0 { PI - a } else { a };
+    if y < 0.0 { -a } else { a }
+}
+
+/// `atan2(y[i], x[i])` for every i, written over `y`.
+///
+/// # Panics
+/// When `y` and `x` differ in length.
+pub fn atan2_in_place(y: &mut [f64], x: &[f64]) {
+    assert_eq!(y.len(), x.len(), "atan2_in_place needs equal lengths");
+    let original: Vec<f64> = y.to_vec();
+    pulp::Arch::new().dispatch(|| {
+        for (v, x) in y.iter_mut().zip(x) {
+            *v = atan2_core(*v, *x);
+        }
+    });
+    for ((v, o), x) in y.iter_mut().zip(original).zip(x) {
+        // Zeros (signed), infinities and NaN take the standard answer.
+        if !(o.is_finite() && x.is_finite()) || (o == 0.0 || *x == 0.0) {
+            *v = o.atan2(*x);
+        }
+    }
+}
+
+/// (−1)ⁿ/(2n + 1)! for n = 1 … 12: sin x = x·(1 + Σ cₙ x²ⁿ) for |x| ≤ π/2
+/// (truncation below 1e-21).
+const SIN_COEFFS: [f64; 12] = {
+    let mut c = [0.0; 12];
+    let mut n = 0;
+    let mut fact = 1.0;
+    let mut k = 1.0;
+    while n < 12 {
+        // (2n + 3)! from (2n + 1)!
+        fact *= (k + 1.0) * (k + 2.0);
+        k += 2.0;
+        c[n] = if n % 2 == 0 { -1.0 / fact } else { 1.0 / fact };
+        n += 1;
+    }
+    c
+};
+
+/// `sin` of every element, in place (the series for |x| ≤ π/2, the standard
+/// library beyond).
+pub fn sin_in_place(x: &mut [f64]) {
+    let original: Vec<f64> = x.to_vec();
+    pulp::Arch::new().dispatch(|| {
+        for v in x.iter_mut() {
+            let t = v.clamp(-std::f64::consts::FRAC_PI_2, std::f64::consts::FRAC_PI_2);
+            let z = t * t;
+            let mut p = SIN_COEFFS[11];
+            for c in SIN_COEFFS[..11].iter().rev() {
+                p = p * z + c;
+            }
+            *v = t + t * z * p;
+        }
+    });
+    for (v, o) in x.iter_mut().zip(original) {
+        if o.is_nan() || o.abs() > std::f64::consts::FRAC_PI_2 {
+            *v = o.sin();
+        }
+    }
+}
+
 #[cfg(test)]
 #[allow(clippy::float_cmp)] // Exact special values are the properties under test.
 mod tests {
@@ -249,6 +345,60 @@ mod tests {
         assert!((p[3] - 2.0).abs() < 1e-15);
         assert!(p[4].is_nan());
         assert!((p[5] - 0.25f64.powf(1.0 / 3.0)).abs() < 1e-16);
+    }
+
+    #[test]
+    fn atan2_matches_the_standard_library() {
+        let ys = samples(-50.0, 50.0, 4000, false);
+        let xs: Vec<f64> = samples(-50.0, 50.0, 4001, false)[1..].to_vec();
+        let mut got = ys.clone();
+        atan2_in_place(&mut got, &xs);
+        for ((g, y), x) in got.iter().zip(&ys).zip(&xs) {
+            let want = y.atan2(*x);
+            assert!(
+                (g - want).abs() <= 8e-16 * want.abs().max(1e-3),
+                "atan2({y}, {x}): {g} vs {want}"
+            );
+        }
+        // Axes, diagonals and special values.
+        let x = [
+            1.0,
+            -1.0,
+            0.0,
+            0.0,
+            1.0,
+            -1.0,
+            0.0,
+            f64::INFINITY,
+            2.0,
+            1e-300,
+        ];
+        let mut y = [0.0, 0.0, 1.0, -1.0, 1.0, -1.0, 0.0, 1.0, f64::NAN, 1e300];
+        let want: Vec<f64> = y.iter().zip(&x).map(|(y, x)| y.atan2(*x)).collect();
+        atan2_in_place(&mut y, &x);
+        for (g, w) in y.iter().zip(&want) {
+            assert!(
+                (g - w).abs() < 1e-15 || (g.is_nan() && w.is_nan()),
+                "{g} vs {w}"
+            );
+        }
+    }
+
+    #[test]
+    fn sin_matches_the_standard_library() {
+        let x = samples(-10.0, 10.0, 5000, false);
+        let mut got = x.clone();
+        sin_in_place(&mut got);
+        for (g, v) in got.iter().zip(&x) {
+            assert!(
+                (g - v.sin()).abs() <= 3e-16 * v.sin().abs().max(1e-3),
+                "sin {v}"
+            );
+        }
+        let mut special = [0.0, f64::NAN, f64::INFINITY];
+        sin_in_place(&mut special);
+        assert_eq!(special[0], 0.0);
+        assert!(special[1].is_nan() && special[2].is_nan());
     }
 
     #[test]

@@ -14,6 +14,7 @@
 //!   implementation notes, supplementary test data, and mathematical observations",
 //!   *Color Res. Appl.* 30(1):21–30. DOI 10.1002/col.20070.
 
+use crate::batch_math::{atan2_in_place, exp_in_place, sin_in_place};
 use crate::error::{ColorError, Result};
 use crate::spaces::{Lab, hue_angle_deg};
 
@@ -220,16 +221,49 @@ const OPPOSITE_HUES: f64 = 1e-6;
 /// dot products of the unit hue vectors; h̄′ is the direction of their sum,
 /// which bisects the shorter arc, as Sharma et al.'s rules for h̄′ do.
 fn hue_terms_by_vectors(
+    one: (f64, f64, f64),
+    two: (f64, f64, f64),
+) -> Option<(f64, f64, (f64, f64))> {
+    let v = hue_vector_terms(one, two)?;
+    Some((
+        v.d_big_h,
+        mean_hue_deg(v.sb.atan2(v.sa)),
+        (v.sin_h, v.cos_h),
+    ))
+}
+
+/// What the hue vectors give without an angle: ΔH′ and the sum of the unit
+/// hue vectors (its direction is h̄′).
+#[derive(Debug, Clone, Copy)]
+struct HueVectorTerms {
+    d_big_h: f64,
+    /// Sum of the unit hue vectors, a′ and b′ components.
+    sa: f64,
+    sb: f64,
+    sin_h: f64,
+    cos_h: f64,
+}
+
+/// [`HueVectorTerms`] of two colours with non-zero chroma; `None` when their
+/// hues are (nearly) opposite.
+fn hue_vector_terms(one: (f64, f64, f64), two: (f64, f64, f64)) -> Option<HueVectorTerms> {
+    let (terms, norm) = hue_vector_terms_unchecked(one, two);
+    (norm >= OPPOSITE_HUES).then_some(terms)
+}
+
+/// [`hue_vector_terms`] without the checks, and the length of the hue-vector
+/// sum (meaningless unless both chromas are positive and the length is at
+/// least [`OPPOSITE_HUES`]). Branch-free, so that many pairs vectorise.
+#[allow(clippy::inline_always)] // inlines into the vectorised batch loop
+#[inline(always)]
+fn hue_vector_terms_unchecked(
     (a1p, b1, c1p): (f64, f64, f64),
     (a2p, b2, c2p): (f64, f64, f64),
-) -> Option<(f64, f64, (f64, f64))> {
+) -> (HueVectorTerms, f64) {
     let (u1a, u1b) = (a1p / c1p, b1 / c1p);
     let (u2a, u2b) = (a2p / c2p, b2 / c2p);
     let (sa, sb) = (u1a + u2a, u1b + u2b);
     let norm = chroma(sa, sb);
-    if norm < OPPOSITE_HUES {
-        return None;
-    }
     // sin Δh′ and cos Δh′ of the unit vectors; sin(Δh′/2) by whichever
     // half-angle form is well conditioned (no cancellation for small Δh′).
     let cross = u1a * u2b - u1b * u2a;
@@ -239,15 +273,28 @@ fn hue_terms_by_vectors(
     } else {
         (0.5 * (1.0 - dot)).sqrt().copysign(cross)
     };
-    let d_big_h = 2.0 * (c1p * c2p).sqrt() * half_sin;
-    let mut h_bar = sb.atan2(sa).to_degrees();
+    (
+        HueVectorTerms {
+            d_big_h: 2.0 * (c1p * c2p).sqrt() * half_sin,
+            sa,
+            sb,
+            sin_h: sb / norm,
+            cos_h: sa / norm,
+        },
+        norm,
+    )
+}
+
+/// h̄′ in degrees, [0, 360), from the angle of the hue-vector sum (radians).
+fn mean_hue_deg(angle_rad: f64) -> f64 {
+    let mut h_bar = angle_rad.to_degrees();
     if h_bar < 0.0 {
         h_bar += 360.0;
     }
     if h_bar >= 360.0 {
         h_bar -= 360.0;
     }
-    Some((d_big_h, h_bar, (sb / norm, sa / norm)))
+    h_bar
 }
 
 /// ΔH′, h̄′ and (sin h̄′, cos h̄′) from hue angles, with Sharma et al.'s rules
@@ -279,44 +326,128 @@ pub fn delta_e_ciede2000_weighted(lab1: Lab, lab2: Lab, weights: Ciede2000Weight
 /// they are defined (same result, fewer trigonometric calls) instead of from
 /// the hue angles everywhere.
 fn ciede2000(lab1: Lab, lab2: Lab, weights: Ciede2000Weights, by_vectors: bool) -> f64 {
-    const POW25_7: f64 = 6_103_515_625.0; // 25⁷
-    let c1 = chroma(lab1.a, lab1.b);
-    let c2 = chroma(lab2.a, lab2.b);
-    let c_bar7 = f64::midpoint(c1, c2).powi(7);
-    let g = 0.5 * (1.0 - (c_bar7 / (c_bar7 + POW25_7)).sqrt());
-    let a1p = (1.0 + g) * lab1.a;
-    let a2p = (1.0 + g) * lab2.a;
-    let c1p = chroma(a1p, lab1.b);
-    let c2p = chroma(a2p, lab2.b);
-    let one = (a1p, lab1.b, c1p);
-    let two = (a2p, lab2.b, c2p);
-    let (d_big_h, h_bar, (sin_h, cos_h)) = (by_vectors && c1p > 0.0 && c2p > 0.0)
-        .then(|| hue_terms_by_vectors(one, two))
+    let p = Primed::of(lab1, lab2);
+    let (d_big_h, h_bar, (sin_h, cos_h)) = (by_vectors && p.one.2 > 0.0 && p.two.2 > 0.0)
+        .then(|| hue_terms_by_vectors(p.one, p.two))
         .flatten()
-        .unwrap_or_else(|| hue_terms_by_angles(one, two));
+        .unwrap_or_else(|| hue_terms_by_angles(p.one, p.two));
+    let rotation_sin = (2.0 * rotation_deg(h_bar)).to_radians().sin();
+    p.finish(d_big_h, (sin_h, cos_h), rotation_sin, weights)
+}
 
-    let dl = lab2.l - lab1.l;
-    let dc = c2p - c1p;
-    let l_bar = f64::midpoint(lab1.l, lab2.l);
-    let c_bar_p = f64::midpoint(c1p, c2p);
+/// Δθ of the rotation term, degrees: 30·exp(−((h̄′ − 275°)/25°)²).
+fn rotation_deg(h_bar: f64) -> f64 {
+    30.0 * (-((h_bar - 275.0) / 25.0).powi(2)).exp()
+}
 
-    let t = hue_weight_t(sin_h, cos_h);
-    let d_theta_deg = 30.0 * (-((h_bar - 275.0) / 25.0).powi(2)).exp();
-    let c_bar_p7 = c_bar_p.powi(7);
-    let r_c = 2.0 * (c_bar_p7 / (c_bar_p7 + POW25_7)).sqrt();
-    let l50 = (l_bar - 50.0).powi(2);
-    let s_l = 1.0 + 0.015 * l50 / (20.0 + l50).sqrt();
-    let s_c = 1.0 + 0.045 * c_bar_p;
-    let s_h = 1.0 + 0.015 * c_bar_p * t;
-    let r_t = -(2.0 * d_theta_deg).to_radians().sin() * r_c;
+/// The two colours with a′ rescaled (Sharma et al. 2005, eqs. 2–6).
+struct Primed {
+    lab1: Lab,
+    lab2: Lab,
+    /// (a′, b, C′) of each colour.
+    one: (f64, f64, f64),
+    two: (f64, f64, f64),
+}
 
-    let tl = dl / (weights.k_l * s_l);
-    let tc = dc / (weights.k_c * s_c);
-    let th = d_big_h / (weights.k_h * s_h);
-    // The quadratic form is positive semi-definite (|R_T| ≤ 2); clamp rounding.
-    (tl * tl + tc * tc + th * th + r_t * tc * th)
-        .max(0.0)
-        .sqrt()
+impl Primed {
+    #[allow(clippy::inline_always)] // inlines into the vectorised batch loop
+    #[inline(always)]
+    fn of(lab1: Lab, lab2: Lab) -> Primed {
+        const POW25_7: f64 = 6_103_515_625.0; // 25⁷
+        let c1 = chroma(lab1.a, lab1.b);
+        let c2 = chroma(lab2.a, lab2.b);
+        let c_bar7 = f64::midpoint(c1, c2).powi(7);
+        let g = 0.5 * (1.0 - (c_bar7 / (c_bar7 + POW25_7)).sqrt());
+        let a1p = (1.0 + g) * lab1.a;
+        let a2p = (1.0 + g) * lab2.a;
+        Primed {
+            lab1,
+            lab2,
+            one: (a1p, lab1.b, chroma(a1p, lab1.b)),
+            two: (a2p, lab2.b, chroma(a2p, lab2.b)),
+        }
+    }
+
+    /// ΔE00 from ΔH′, (sin h̄′, cos h̄′) and sin(2Δθ) (eqs. 7–22).
+    #[allow(clippy::inline_always)] // inlines into the vectorised batch loop
+    #[inline(always)]
+    fn finish(
+        &self,
+        d_big_h: f64,
+        (sin_h, cos_h): (f64, f64),
+        rotation_sin: f64,
+        weights: Ciede2000Weights,
+    ) -> f64 {
+        const POW25_7: f64 = 6_103_515_625.0; // 25⁷
+        let (lab1, lab2) = (self.lab1, self.lab2);
+        let (c1p, c2p) = (self.one.2, self.two.2);
+        let dl = lab2.l - lab1.l;
+        let dc = c2p - c1p;
+        let l_bar = f64::midpoint(lab1.l, lab2.l);
+        let c_bar_p = f64::midpoint(c1p, c2p);
+        let t = hue_weight_t(sin_h, cos_h);
+        let c_bar_p7 = c_bar_p.powi(7);
+        let r_c = 2.0 * (c_bar_p7 / (c_bar_p7 + POW25_7)).sqrt();
+        let l50 = (l_bar - 50.0).powi(2);
+        let s_l = 1.0 + 0.015 * l50 / (20.0 + l50).sqrt();
+        let s_c = 1.0 + 0.045 * c_bar_p;
+        let s_h = 1.0 + 0.015 * c_bar_p * t;
+        let r_t = -rotation_sin * r_c;
+        let tl = dl / (weights.k_l * s_l);
+        let tc = dc / (weights.k_c * s_c);
+        let th = d_big_h / (weights.k_h * s_h);
+        // The quadratic form is positive semi-definite (|R_T| ≤ 2); clamp rounding.
+        (tl * tl + tc * tc + th * th + r_t * tc * th)
+            .max(0.0)
+            .sqrt()
+    }
+}
+
+/// CIEDE2000 (kL = kC = kH = 1) of many pairs: the same as
+/// [`delta_e_ciede2000`] on each pair (to a few units in the last place),
+/// with the `atan2`, `exp` and `sin` of all pairs computed together by the
+/// vectorised [`crate::batch_math`]. Pairs whose hue terms need the angle
+/// rules (a neutral colour, opposite hues) take the one-pair path.
+#[must_use]
+pub fn delta_e_ciede2000_many(pairs: &[(Lab, Lab)]) -> Vec<f64> {
+    let weights = Ciede2000Weights::REFERENCE;
+    // Stage 1, branch-free over all pairs: primed chromas and hue-vector terms.
+    let primed: Vec<Primed> = pairs.iter().map(|(a, b)| Primed::of(*a, *b)).collect();
+    let (terms, valid): (Vec<HueVectorTerms>, Vec<bool>) = primed
+        .iter()
+        .map(|p| {
+            let (t, norm) = hue_vector_terms_unchecked(p.one, p.two);
+            (t, p.one.2 > 0.0 && p.two.2 > 0.0 && norm >= OPPOSITE_HUES)
+        })
+        .unzip();
+    // Stage 2: h̄′ from atan2, the rotation Δθ from exp, sin 2Δθ.
+    let mut angle: Vec<f64> = terms.iter().map(|t| t.sb).collect();
+    let across: Vec<f64> = terms.iter().map(|t| t.sa).collect();
+    atan2_in_place(&mut angle, &across);
+    let mut gauss: Vec<f64> = angle
+        .iter()
+        .map(|a| -((mean_hue_deg(*a) - 275.0) / 25.0).powi(2))
+        .collect();
+    exp_in_place(&mut gauss);
+    let mut rotation: Vec<f64> = gauss
+        .iter()
+        .map(|g| (2.0 * 30.0 * g).to_radians())
+        .collect();
+    sin_in_place(&mut rotation);
+    // Stage 3: the weighted quadratic form; pairs that need the angle rules
+    // (a neutral colour, opposite hues) take the one-pair path.
+    let mut out: Vec<f64> = primed
+        .iter()
+        .zip(&terms)
+        .zip(&rotation)
+        .map(|((p, t), r)| p.finish(t.d_big_h, (t.sin_h, t.cos_h), *r, weights))
+        .collect();
+    for ((o, ok), (lab1, lab2)) in out.iter_mut().zip(&valid).zip(pairs) {
+        if !ok {
+            *o = ciede2000(*lab1, *lab2, weights, true);
+        }
+    }
+    out
 }
 
 /// A lower bound of ΔE00 (kL = 1) that costs one square root: the lightness
@@ -348,6 +479,21 @@ mod tests {
             let slow = ciede2000(l1, l2, w, false);
             prop_assert!((fast - slow).abs() <= 1e-9 * slow.max(1.0), "{} vs {}", fast, slow);
             prop_assert!(ciede2000_lower_bound(l1, l2) <= fast + 1e-12);
+        }
+
+        #[test]
+        fn many_pairs_at_once_equal_one_at_a_time(pairs in proptest::collection::vec((lab(), lab()), 0..40)) {
+            // Neutral and identical colours take the one-pair path inside.
+            let mut pairs = pairs;
+            pairs.push((Lab::new(50.0, 0.0, 0.0), Lab::new(60.0, 10.0, -5.0)));
+            pairs.push((Lab::new(50.0, 20.0, 0.0), Lab::new(50.0, -20.0, 0.0)));
+            pairs.push((Lab::new(70.0, 5.0, 5.0), Lab::new(70.0, 5.0, 5.0)));
+            let many = delta_e_ciede2000_many(&pairs);
+            prop_assert_eq!(many.len(), pairs.len());
+            for ((a, b), got) in pairs.iter().zip(&many) {
+                let want = delta_e_ciede2000(*a, *b);
+                prop_assert!((got - want).abs() <= 1e-12 * want.max(1.0), "{} vs {}", got, want);
+            }
         }
 
         #[test]

@@ -258,6 +258,46 @@ impl Lab {
         }
     }
 
+    /// CIELAB of many colours against one white: the same as
+    /// [`Lab::from_xyz`] on each (to a few units in the last place), with
+    /// the cube roots of all colours computed together by the vectorised
+    /// [`crate::batch_math`].
+    #[must_use]
+    pub fn many_from_xyz(xyz: &[Xyz], white: Xyz) -> Vec<Lab> {
+        let t: Vec<f64> = xyz
+            .iter()
+            .flat_map(|c| {
+                [
+                    div_or_zero(c.x, white.x),
+                    div_or_zero(c.y, white.y),
+                    div_or_zero(c.z, white.z),
+                ]
+            })
+            .collect();
+        // ln t / 3 then exp, as lab_f does, over the values above ε.
+        let mut f: Vec<f64> = t
+            .iter()
+            .map(|t| if *t > LAB_EPSILON { *t } else { 1.0 })
+            .collect();
+        crate::batch_math::ln_in_place(&mut f);
+        for v in &mut f {
+            *v /= 3.0;
+        }
+        crate::batch_math::exp_in_place(&mut f);
+        for (f, t) in f.iter_mut().zip(&t) {
+            if *t <= LAB_EPSILON || t.is_nan() {
+                *f = lab_f(*t);
+            }
+        }
+        f.chunks_exact(3)
+            .map(|c| Lab {
+                l: 116.0 * c[1] - 16.0,
+                a: 500.0 * (c[0] - c[1]),
+                b: 200.0 * (c[1] - c[2]),
+            })
+            .collect()
+    }
+
     /// Back to XYZ on the scale of `white` (CIE 15:2018 §8.2.1, inverse equations).
     #[must_use]
     pub fn to_xyz(self, white: Xyz) -> Xyz {
@@ -386,6 +426,36 @@ mod tests {
     use proptest::prelude::*;
 
     const D65: Xyz = Xyz::new(95.047, 100.0, 108.883);
+
+    #[test]
+    fn many_labs_at_once_equal_one_at_a_time() {
+        let white = Xyz::new(95.047, 100.0, 108.883);
+        let mut colours = vec![
+            Xyz::new(0.0, 0.0, 0.0),
+            white,
+            Xyz::new(0.5, 0.4, 0.3),
+            Xyz::new(-2.0, 1e-9, 300.0),
+            Xyz::new(f64::NAN, 1.0, 1.0),
+        ];
+        for i in 0..200 {
+            let u = f64::from(i);
+            colours.push(Xyz::new(
+                50.0 + 49.0 * (u * 0.3).sin(),
+                50.0 + 49.0 * (u * 0.7).cos(),
+                55.0 + 54.0 * (u * 0.5).sin(),
+            ));
+        }
+        let many = Lab::many_from_xyz(&colours, white);
+        for (c, got) in colours.iter().zip(&many) {
+            let want = Lab::from_xyz(*c, white);
+            for (g, w) in [(got.l, want.l), (got.a, want.a), (got.b, want.b)] {
+                assert!(
+                    (g - w).abs() <= 1e-12 * (1.0 + w.abs()) || (g.is_nan() && w.is_nan()),
+                    "{c:?}: {got:?} vs {want:?}"
+                );
+            }
+        }
+    }
 
     #[test]
     fn white_is_l100_and_neutral() {
