@@ -34,6 +34,7 @@ use lampwright_color::GRID_LEN;
 use lampwright_color::RelativeSpd;
 use lampwright_color::observer::Observer;
 use nalgebra::DMatrix;
+use std::sync::LazyLock;
 
 fn sensitivity_matrix(camera: &CameraSensitivities) -> DMatrix<f64> {
     let ch = camera.channels();
@@ -61,24 +62,36 @@ fn orthonormal_basis(m: DMatrix<f64>, what: &str) -> Result<DMatrix<f64>> {
         .ok_or_else(|| CameraError::Numerical(format!("{what}: SVD did not return a basis")))
 }
 
+/// The CIE 1931 2° CMFs as a matrix and an orthonormal basis of their span
+/// (fixed data: computed once).
+static CMF: LazyLock<Result<(DMatrix<f64>, DMatrix<f64>)>> = LazyLock::new(|| {
+    let c = cmf_matrix(Observer::cie1931_2deg());
+    let basis = orthonormal_basis(c.clone(), "CIE 1931 observer")?;
+    Ok((c, basis))
+});
+
+/// Luther residual and Vora–Trussell µ-factor together: one orthonormal
+/// basis of the camera's curves serves both.
+pub fn luther_and_mu(camera: &CameraSensitivities) -> Result<(f64, f64)> {
+    let (c, o_c) = CMF.as_ref().map_err(Clone::clone)?;
+    let u = orthonormal_basis(sensitivity_matrix(camera), &camera.name)?;
+    let projected = &u * (u.transpose() * c);
+    let luther = (c - projected).norm() / c.norm();
+    // trace(O_Cᵀ P_S O_C) = ‖U_Sᵀ O_C‖_F².
+    let mu = (u.transpose() * o_c).norm_squared() / 3.0;
+    Ok((luther, mu))
+}
+
 /// Relative residual of the least-squares fit of the CIE 1931 2° CMFs from the
 /// camera's curves (0 = Luther condition met); see the module docs.
 pub fn luther_residual(camera: &CameraSensitivities) -> Result<f64> {
-    let s = sensitivity_matrix(camera);
-    let c = cmf_matrix(Observer::cie1931_2deg());
-    let u = orthonormal_basis(s, &camera.name)?;
-    let projected = &u * (u.transpose() * &c);
-    Ok((&c - projected).norm() / c.norm())
+    Ok(luther_and_mu(camera)?.0)
 }
 
 /// Vora–Trussell µ-factor of the camera against the CIE 1931 2° CMFs (1 = ideal);
 /// see the module docs.
 pub fn vora_trussell_mu(camera: &CameraSensitivities) -> Result<f64> {
-    let u_s = orthonormal_basis(sensitivity_matrix(camera), &camera.name)?;
-    let o_c = orthonormal_basis(cmf_matrix(Observer::cie1931_2deg()), "CIE 1931 observer")?;
-    // trace(O_Cᵀ P_S O_C) = ‖U_Sᵀ O_C‖_F².
-    let cross = u_s.transpose() * o_c;
-    Ok(cross.norm_squared() / 3.0)
+    Ok(luther_and_mu(camera)?.1)
 }
 
 /// CIEDE2000 statistics of `camera` over `training` under `light`, white

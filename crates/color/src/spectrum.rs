@@ -319,13 +319,19 @@ impl Transmittance {
         } else {
             0.0
         };
-        Transmittance(self.0.map(|t| {
-            if t <= 0.0 {
-                if f == 0.0 { 1.0 } else { 0.0 }
-            } else {
-                t.powf(f)
-            }
-        }))
+        // T^f over the whole grid at once (vectorised exp and ln, to a few
+        // units in the last place of `powf`); opaque points stay opaque
+        // unless f = 0.
+        let mut values = self.0.values.clone();
+        if f == 0.0 {
+            values.fill(1.0);
+        } else {
+            crate::batch_math::pow_nonnegative_in_place(&mut values[..], f);
+        }
+        Transmittance(Curve {
+            values,
+            coverage: self.0.coverage,
+        })
     }
 
     /// A perfectly clear filter (T = 1 everywhere).

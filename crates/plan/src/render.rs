@@ -18,7 +18,7 @@ use lampwright_camera::display::DisplaySpace;
 use lampwright_camera::pipeline::{
     CameraPipeline, CameraSettings, SubjectComparison, camera_metamers,
 };
-use lampwright_camera::quality::{luther_residual, vora_trussell_mu};
+use lampwright_camera::quality::luther_and_mu;
 use lampwright_camera::raw::{SceneResponse, SubjectSignal, raw_of_light};
 use lampwright_camera::white_balance::ResolvedWhiteBalance;
 use lampwright_camera::{CameraSensitivities, TrainingSet, WhiteBalance};
@@ -52,9 +52,10 @@ pub struct CameraQuality {
 impl CameraQuality {
     /// Compute them for `camera`.
     pub fn of(camera: &CameraSensitivities) -> Result<CameraQuality> {
+        let (luther_residual, mu_factor) = luther_and_mu(camera)?;
         Ok(CameraQuality {
-            luther_residual: luther_residual(camera)?,
-            mu_factor: vora_trussell_mu(camera)?,
+            luther_residual,
+            mu_factor,
         })
     }
 }
