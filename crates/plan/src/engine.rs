@@ -386,7 +386,7 @@ pub struct Evaluator {
     sources: Vec<(SourceKey, SourceLight)>,
     zones: Vec<ZoneEntry>,
     cameras: Vec<(crate::model::CameraRef, crate::render::CameraQuality)>,
-    pipelines: Vec<crate::render::PipelineEntry>,
+    camera_cache: crate::render::CameraCache,
     hits: u64,
     misses: u64,
 }
@@ -544,7 +544,7 @@ impl Evaluator {
             quality,
             &zone_spectra,
             &subjects,
-            &mut self.pipelines,
+            &mut self.camera_cache,
         )?;
         let mut zones = Vec::with_capacity(mixes.len());
         let mut metamers = Vec::new();

@@ -72,6 +72,31 @@ pub struct PipelineEntry {
 /// Pipelines kept at most.
 const PIPELINES_KEPT: usize = 8;
 
+/// Zones' subject signals kept at most.
+const SIGNALS_KEPT: usize = 16;
+
+/// A zone's subject signals as the camera and the eye collect them under the
+/// zone's light, before scaling to the main zone's exposure.
+struct SignalEntry {
+    camera: CameraRef,
+    subjects: Vec<crate::model::SubjectRef>,
+    light: Vec<f64>,
+    /// Raw G and Y of the light itself (the scale of the signals); `None`
+    /// when the zone is dark for the camera or the eye.
+    scale: Option<(f64, f64)>,
+    signals: Vec<SubjectSignal>,
+}
+
+/// What the camera stage keeps between evaluations of a plan being edited:
+/// pipelines by camera, settings and main light; each zone's subject signals
+/// by camera, subjects and zone light. A plan whose embedded library changes
+/// needs a new cache (the keys name library entries).
+#[derive(Default)]
+pub struct CameraCache {
+    pipelines: Vec<PipelineEntry>,
+    signals: Vec<SignalEntry>,
+}
+
 /// One zone rendered.
 pub struct Rendered {
     /// Per subject, plan order.
@@ -129,36 +154,70 @@ fn peak_normalised(values: &[f64]) -> Vec<f64> {
 }
 
 /// Every subject's signals under a zone's light, scaled to the zone's
-/// exposure relative to the main zone (zeros for a dark zone).
+/// exposure relative to the main zone (zeros for a dark zone). Unscaled
+/// signals come from `cache` when the same camera, subjects and light were
+/// integrated before.
 fn zone_signals(
+    plan: &Plan,
     camera: &CameraSensitivities,
     zone_light: &SpectralIrradiance,
     main: (f64, f64),
     subjects: &[ResolvedSubject],
+    cache: &mut Vec<SignalEntry>,
 ) -> Result<Vec<SubjectSignal>> {
     let light = zone_light.to_relative();
-    let raw_g = raw_of_light(camera, &light)[1];
-    let y = xyz_sums(light.values(), Observer::cie1931_2deg()).y;
-    if raw_g > DARK && y > DARK && light.check_colorimetric("zone").is_ok() {
-        let scene = SceneResponse::new(camera, &light, Observer::cie1931_2deg())?;
-        let (k_raw, k_y) = (raw_g / main.0, y / main.1);
-        Ok(scene
-            .subjects_of(subjects.iter().map(|s| &s.reflectance))
-            .into_iter()
-            .map(|sig| SubjectSignal {
-                raw_rgb: sig.raw_rgb.map(|v| v * k_raw),
-                xyz: sig.xyz.scaled(k_y),
-            })
-            .collect())
+    let subject_refs = || plan.subjects.iter().map(|e| &e.subject);
+    let found = cache.iter().position(|e| {
+        e.camera == plan.camera.camera
+            && e.light.as_slice() == light.values().as_slice()
+            && e.subjects.len() == plan.subjects.len()
+            && e.subjects.iter().eq(subject_refs())
+    });
+    let index = if let Some(i) = found {
+        i
     } else {
-        Ok(subjects
+        let raw_g = raw_of_light(camera, &light)[1];
+        let y = xyz_sums(light.values(), Observer::cie1931_2deg()).y;
+        let lit = raw_g > DARK && y > DARK && light.check_colorimetric("zone").is_ok();
+        let signals = if lit {
+            SceneResponse::new(camera, &light, Observer::cie1931_2deg())?
+                .subjects_of(subjects.iter().map(|s| &s.reflectance))
+        } else {
+            Vec::new()
+        };
+        if cache.len() >= SIGNALS_KEPT {
+            cache.remove(0);
+        }
+        cache.push(SignalEntry {
+            camera: plan.camera.camera.clone(),
+            subjects: subject_refs().cloned().collect(),
+            light: light.values().to_vec(),
+            scale: lit.then_some((raw_g, y)),
+            signals,
+        });
+        cache.len() - 1
+    };
+    let entry = &cache[index];
+    Ok(match entry.scale {
+        Some((raw_g, y)) => {
+            let (k_raw, k_y) = (raw_g / main.0, y / main.1);
+            entry
+                .signals
+                .iter()
+                .map(|sig| SubjectSignal {
+                    raw_rgb: sig.raw_rgb.map(|v| v * k_raw),
+                    xyz: sig.xyz.scaled(k_y),
+                })
+                .collect()
+        }
+        None => subjects
             .iter()
             .map(|_| SubjectSignal {
                 raw_rgb: [0.0; 3],
                 xyz: lampwright_color::Xyz::default(),
             })
-            .collect())
-    }
+            .collect(),
+    })
 }
 
 impl CameraStage {
@@ -170,16 +229,17 @@ impl CameraStage {
     /// read where the key light is, in the main zone.
     ///
     /// `camera` and `quality` are the plan's camera and its quality figures;
-    /// `pipelines` keeps pipelines between evaluations (pass an empty list
-    /// to set up afresh).
+    /// `cache` keeps pipelines and signals between evaluations (pass a new
+    /// one to set up afresh).
     pub fn new(
         plan: &Plan,
         camera: &CameraSensitivities,
         quality: CameraQuality,
         zone_lights: &[SpectralIrradiance],
         subjects: &[ResolvedSubject],
-        pipelines: &mut Vec<PipelineEntry>,
+        cache: &mut CameraCache,
     ) -> Result<CameraStage> {
+        let pipelines = &mut cache.pipelines;
         let settings = camera_settings(plan);
         let channels = camera.channels();
         let mut figures = CameraFigures {
@@ -235,7 +295,16 @@ impl CameraStage {
         };
         let zone_signals = zone_lights
             .iter()
-            .map(|z| zone_signals(camera, z, (main_raw_g, main_y), subjects))
+            .map(|z| {
+                zone_signals(
+                    plan,
+                    camera,
+                    z,
+                    (main_raw_g, main_y),
+                    subjects,
+                    &mut cache.signals,
+                )
+            })
             .collect::<Result<Vec<_>>>()?;
         let white_balance = if matches!(settings.white_balance, WhiteBalance::GreyCard { .. }) {
             pipeline.white_balance_for(&zone_signals[0])?
