@@ -125,25 +125,18 @@ fn y_380_780(spd: &RelativeSpd) -> f64 {
     dot(&spd.values()[w.clone()], &Observer::cie1931_2deg().y_bar[w])
 }
 
-/// The TM-30 / CIE 224 reference at `cct_k` (1000–25 000 K), with its kind and
-/// daylight fraction. `planck` and `day` may pass spectra already computed at
-/// `cct_k`; missing ones are computed.
-pub fn tm30_reference(
-    cct_k: f64,
-    planck: Option<&RelativeSpd>,
-    day: Option<&RelativeSpd>,
-) -> Result<(RelativeSpd, ReferenceKind, f64)> {
+/// The TM-30 / CIE 224 reference spectrum at `cct_k` (1000–25 000 K), with
+/// its kind and daylight fraction.
+pub fn tm30_reference(cct_k: f64) -> Result<(RelativeSpd, ReferenceKind, f64)> {
     let (lo, hi) = TM30_BLEND_RANGE_K;
-    let get_planck = || planck.map_or_else(|| planckian(cct_k), |p| Ok(p.clone()));
-    let get_day = || day.map_or_else(|| daylight(cct_k), |d| Ok(d.clone()));
     if cct_k < lo {
-        return Ok((get_planck()?, ReferenceKind::Planckian, 0.0));
+        return Ok((planckian(cct_k)?, ReferenceKind::Planckian, 0.0));
     }
     if cct_k > hi {
-        return Ok((get_day()?, ReferenceKind::Daylight, 1.0));
+        return Ok((daylight(cct_k)?, ReferenceKind::Daylight, 1.0));
     }
-    let p = get_planck()?;
-    let d = get_day()?;
+    let p = planckian(cct_k)?;
+    let d = daylight(cct_k)?;
     let (yp, yd) = (y_380_780(&p), y_380_780(&d));
     if !(yp > 0.0 && yd > 0.0) {
         return Err(ColorError::Numerical(format!(
@@ -376,7 +369,7 @@ fn reference_jab(cct_k: f64) -> Result<(Vec<[f64; 3]>, ReferenceKind, f64)> {
 /// [`reference_jab`] from the reference spectrum itself.
 fn reference_jab_direct(cct_k: f64) -> Result<(Vec<[f64; 3]>, ReferenceKind, f64)> {
     let set = CES_SET.as_ref().map_err(Clone::clone)?;
-    let (reference, kind, m) = tm30_reference(cct_k, None, None)?;
+    let (reference, kind, m) = tm30_reference(cct_k)?;
     Ok((ces_jab(&set.xyz_one(reference.values()))?, kind, m))
 }
 
@@ -506,7 +499,7 @@ mod tests {
         // CIE 224 / TM-30: the reference itself scores Rf = Rg = 100 (Rf's formula
         // gives 100.0005 for ΔE′ = 0).
         for t in [2700.0, 4500.0, 6500.0] {
-            let (spd, kind, m) = tm30_reference(t, None, None).unwrap();
+            let (spd, kind, m) = tm30_reference(t).unwrap();
             let cct = cct_duv(uv1960_of_spd(&spd, "ref").unwrap(), CctMethod::Ohno2014).unwrap();
             let r = tm30_with_cct(&spd, CctDuv { cct_k: t, ..cct }).unwrap();
             assert!((r.rf - 100.0).abs() < 1e-3, "{t}: {}", r.rf);
@@ -555,17 +548,11 @@ mod tests {
 
     #[test]
     fn blend_weights_by_cct() {
-        let (_, kind, m) = tm30_reference(4250.0, None, None).unwrap();
+        let (_, kind, m) = tm30_reference(4250.0).unwrap();
         assert_eq!(kind, ReferenceKind::Blend);
         assert!((m - 0.25).abs() < 1e-12);
-        assert_eq!(
-            tm30_reference(3999.0, None, None).unwrap().1,
-            ReferenceKind::Planckian
-        );
-        assert_eq!(
-            tm30_reference(5001.0, None, None).unwrap().1,
-            ReferenceKind::Daylight
-        );
+        assert_eq!(tm30_reference(3999.0).unwrap().1, ReferenceKind::Planckian);
+        assert_eq!(tm30_reference(5001.0).unwrap().1, ReferenceKind::Daylight);
     }
 
     #[test]

@@ -209,7 +209,7 @@ fn reference_jab(
     cct_k: f64,
     which: &mut dyn Iterator<Item = usize>,
 ) -> Option<Vec<(usize, [f64; 3])>> {
-    let (spd, _, _) = tm30_reference(cct_k, None, None).ok()?;
+    let (spd, _, _) = tm30_reference(cct_k).ok()?;
     let l = &spd.values()[WINDOW];
     let white = samples.white10.each_ref().map(|row| dot(row, l));
     if !positive(white[1]) {
