@@ -15,6 +15,7 @@ if [ ! -x .venv-bench/bin/python ]; then
   python3 -m venv .venv-bench
   .venv-bench/bin/pip install --quiet colour-science==0.4.7 scipy==1.14.1
 fi
+mkdir -p target
 # Older OpenBLAS builds need these on some processors, but they slow current NumPy;
 # unset them for this timing only.
 env -u OPENBLAS_CORETYPE -u OPENBLAS_L2_SIZE .venv-bench/bin/python scripts/bench_vs_colour_science.py > target/bench_colour_science.json
