@@ -109,11 +109,44 @@ fn ln_core(x: f64) -> f64 {
 /// Runs `f` over `x` in place under the best instruction set available
 /// (`f` is a function item, so it inlines into the dispatched loop).
 fn in_place(x: &mut [f64], f: impl Fn(f64) -> f64 + Copy) {
-    pulp::Arch::new().dispatch(|| {
-        for v in x.iter_mut() {
-            *v = f(*v);
+    pulp::Arch::new().dispatch(Unary { x, f });
+}
+
+/// `x[i] = f(x[i])` as a pulp kernel. A kernel type (rather than a closure)
+/// is always inlined into pulp's feature-enabled entry point, so the loop
+/// is compiled for the chosen instruction set.
+struct Unary<'a, F> {
+    x: &'a mut [f64],
+    f: F,
+}
+
+impl<F: Fn(f64) -> f64> pulp::WithSimd for Unary<'_, F> {
+    type Output = ();
+    #[allow(clippy::inline_always)] // must inline into the dispatched function
+    #[inline(always)]
+    fn with_simd<S: pulp::Simd>(self, _simd: S) {
+        for v in self.x.iter_mut() {
+            *v = (self.f)(*v);
         }
-    });
+    }
+}
+
+/// `y[i] = f(y[i], x[i])` as a pulp kernel (see [`Unary`]).
+struct Binary<'a, F> {
+    y: &'a mut [f64],
+    x: &'a [f64],
+    f: F,
+}
+
+impl<F: Fn(f64, f64) -> f64> pulp::WithSimd for Binary<'_, F> {
+    type Output = ();
+    #[allow(clippy::inline_always)] // must inline into the dispatched function
+    #[inline(always)]
+    fn with_simd<S: pulp::Simd>(self, _simd: S) {
+        for (v, x) in self.y.iter_mut().zip(self.x) {
+            *v = (self.f)(*v, *x);
+        }
+    }
 }
 
 /// `exp` of every element, in place.
@@ -198,10 +231,10 @@ fn atan2_core(y: f64, x: f64) -> f64 {
 pub fn atan2_in_place(y: &mut [f64], x: &[f64]) {
     assert_eq!(y.len(), x.len(), "atan2_in_place needs equal lengths");
     let original: Vec<f64> = y.to_vec();
-    pulp::Arch::new().dispatch(|| {
-        for (v, x) in y.iter_mut().zip(x) {
-            *v = atan2_core(*v, *x);
-        }
+    pulp::Arch::new().dispatch(Binary {
+        y: &mut *y,
+        x,
+        f: atan2_core,
     });
     for ((v, o), x) in y.iter_mut().zip(original).zip(x) {
         // Zeros (signed), infinities and NaN take the standard answer.
@@ -228,21 +261,24 @@ const SIN_COEFFS: [f64; 12] = {
     c
 };
 
+/// sin for |x| ≤ π/2 (larger arguments are clamped there).
+#[allow(clippy::inline_always)] // must inline into the dispatched loop to vectorise
+#[inline(always)]
+fn sin_core(v: f64) -> f64 {
+    let t = v.clamp(-std::f64::consts::FRAC_PI_2, std::f64::consts::FRAC_PI_2);
+    let z = t * t;
+    let mut p = SIN_COEFFS[11];
+    for c in SIN_COEFFS[..11].iter().rev() {
+        p = p * z + c;
+    }
+    t + t * z * p
+}
+
 /// `sin` of every element, in place (the series for |x| ≤ π/2, the standard
 /// library beyond).
 pub fn sin_in_place(x: &mut [f64]) {
     let original: Vec<f64> = x.to_vec();
-    pulp::Arch::new().dispatch(|| {
-        for v in x.iter_mut() {
-            let t = v.clamp(-std::f64::consts::FRAC_PI_2, std::f64::consts::FRAC_PI_2);
-            let z = t * t;
-            let mut p = SIN_COEFFS[11];
-            for c in SIN_COEFFS[..11].iter().rev() {
-                p = p * z + c;
-            }
-            *v = t + t * z * p;
-        }
-    });
+    in_place(x, sin_core);
     for (v, o) in x.iter_mut().zip(original) {
         if o.is_nan() || o.abs() > std::f64::consts::FRAC_PI_2 {
             *v = o.sin();

@@ -244,9 +244,19 @@ fn reference_side(cct_k: f64) -> Result<(ReferenceSide, ReferenceKind)> {
 /// the CIE 13.3 reference at that CCT.
 pub fn cri_with_cct(test: &RelativeSpd, cct: CctDuv) -> Result<Cri> {
     test.check_colorimetric("light")?;
-    let set = TCS_SET.as_ref().map_err(Clone::clone)?;
+    cri_of_sums(&tcs_set()?.xyz_one(test.values()), cct)
+}
+
+/// The 14 test colour samples ready for summing under a light.
+pub(crate) fn tcs_set() -> Result<&'static SampleSet> {
+    TCS_SET.as_ref().map_err(Clone::clone)
+}
+
+/// Ra and Ri from the test light's TCS sums (a light already checked as
+/// colorimetric) whose CCT is `cct`.
+pub(crate) fn cri_of_sums(test: &SampleXyz, cct: CctDuv) -> Result<Cri> {
     let (reference, kind) = reference_side(cct.cct_k)?;
-    cri_from_sums(&set.xyz_one(test.values()), &reference, cct, kind)
+    cri_from_sums(test, &reference, cct, kind)
 }
 
 /// Ra and Ri of `test` against a given reference spectrum (already chosen for

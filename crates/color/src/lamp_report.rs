@@ -10,15 +10,16 @@
 //! See the modules: [`crate::cct`], [`crate::cri`], [`crate::tm30`],
 //! [`crate::ssi`], [`crate::photometry`].
 
-use crate::cct::{CctDuv, CctMethod, cct_duv, uv1960_of_spd};
-use crate::cri::{Cri, cri_with_cct};
+use crate::cct::CctDuv;
+use crate::cri::Cri;
 use crate::error::{ColorError, Result};
+use crate::light_sums::LightSums;
 use crate::observer::ObserverKind;
 use crate::photometry::luminous_efficacy_of_radiation_lm_per_w;
 use crate::spaces::{Uv1960, UvPrime};
 use crate::spectrum::RelativeSpd;
-use crate::ssi::{Ssi, ssi_at_cct};
-use crate::tm30::{Tm30, tm30_with_cct};
+use crate::ssi::Ssi;
+use crate::tm30::Tm30;
 use crate::tristimulus::{Xyz, xyz_sums};
 
 /// The figures of one lamp spectrum.
@@ -63,7 +64,12 @@ pub fn lamp_report(spd: &RelativeSpd) -> Result<LampReport> {
 pub fn lamp_report_with_observer(spd: &RelativeSpd, observer: ObserverKind) -> Result<LampReport> {
     let what = "lamp spectrum";
     spd.check_colorimetric(what)?;
-    let raw = xyz_sums(spd.values(), observer.observer());
+    // The weighted sums every figure needs, taken once.
+    let sums = LightSums::of(spd)?;
+    let raw = match observer {
+        ObserverKind::Cie1931TwoDegree => sums.xyz(),
+        ObserverKind::Cie1964TenDegree => xyz_sums(spd.values(), observer.observer()),
+    };
     if raw.y.is_nan() || raw.y <= 0.0 {
         return Err(ColorError::NotColorimetric {
             what: what.into(),
@@ -98,7 +104,10 @@ pub fn lamp_report_with_observer(spd: &RelativeSpd, observer: ObserverKind) -> R
         ler_lm_per_w,
         warnings,
     };
-    let cct = match cct_duv(uv1960_of_spd(spd, what)?, CctMethod::Ohno2014) {
+    // CCT from the sums, then each metric's reference side at that CCT from
+    // tables (Planckian) or basis sums (daylight): no reference spectrum is
+    // built here.
+    let cct = match sums.cct() {
         Ok(c) => c,
         Err(e) => {
             report
@@ -108,9 +117,8 @@ pub fn lamp_report_with_observer(spd: &RelativeSpd, observer: ObserverKind) -> R
         }
     };
     report.cct = Some(cct);
-    // Each metric takes its reference side at this CCT from tables (Planckian)
-    // or basis sums (daylight); no reference spectrum is built here.
-    match cri_with_cct(spd, cct) {
+    let quality = sums.quality(cct);
+    match quality.cri {
         Ok(c) => {
             if let Some(w) = c.warning() {
                 report.warnings.push(w);
@@ -119,11 +127,11 @@ pub fn lamp_report_with_observer(spd: &RelativeSpd, observer: ObserverKind) -> R
         }
         Err(e) => report.warnings.push(format!("no CRI: {e}")),
     }
-    match tm30_with_cct(spd, cct) {
+    match quality.tm30 {
         Ok(tm) => report.tm30 = Some(tm),
         Err(e) => report.warnings.push(format!("no TM-30: {e}")),
     }
-    match ssi_at_cct(spd, cct.cct_k) {
+    match quality.ssi {
         Ok(s) => report.ssi = Some(s),
         Err(e) => report.warnings.push(format!("no SSI: {e}")),
     }

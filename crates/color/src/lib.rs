@@ -19,6 +19,7 @@ mod error;
 pub mod illuminant;
 pub mod import;
 pub mod lamp_report;
+pub mod light_sums;
 mod mired_table;
 pub mod observer;
 pub mod photometry;

@@ -43,7 +43,7 @@ pub fn luminous_efficacy_of_radiation_lm_per_w(spd: &RelativeSpd) -> Result<f64>
             reason: "it has negative spectral power, so its efficacy is undefined".into(),
         });
     }
-    let radiant: f64 = spd.values().iter().sum();
+    let radiant = crate::spectral_weights::sum(spd.values());
     let luminous = spd.dot(v_lambda());
     if radiant <= 0.0 {
         return Err(ColorError::NotColorimetric {

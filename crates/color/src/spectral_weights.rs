@@ -117,7 +117,7 @@ impl SampleSet {
     /// Tristimulus sums of every sample under `light`.
     pub(crate) fn xyz_one(&self, light: &[f64; GRID_LEN]) -> SampleXyz {
         let w = self.weighted(light);
-        let white = w.each_ref().map(|c| c.iter().sum::<f64>());
+        let white = w.each_ref().map(|c| sum(c));
         let rows: Vec<&[f64]> = self.reflectance.chunks_exact(self.len.max(1)).collect();
         let sums = weighted_sums_3(&rows, [&w[0], &w[1], &w[2]]);
         SampleXyz {
@@ -128,6 +128,20 @@ impl SampleSet {
             white: Xyz::new(white[0], white[1], white[2]),
         }
     }
+}
+
+/// Sum with four independent accumulators (vectorisable; a plain
+/// left-to-right sum waits on every addition in turn).
+pub(crate) fn sum(a: &[f64]) -> f64 {
+    let mut acc = [0.0f64; 4];
+    let mut chunks = a.chunks_exact(4);
+    for x in &mut chunks {
+        acc[0] += x[0];
+        acc[1] += x[1];
+        acc[2] += x[2];
+        acc[3] += x[3];
+    }
+    (acc[0] + acc[1]) + (acc[2] + acc[3]) + chunks.remainder().iter().sum::<f64>()
 }
 
 /// Dot product with four independent accumulators (vectorisable).
@@ -184,6 +198,7 @@ mod tests {
             assert!((got.white.y - w.y).abs() < 1e-9 * w.y);
         }
         assert!((dot(&[1.0, 2.0, 3.0, 4.0, 5.0], &[1.0; 5]) - 15.0).abs() < 1e-12);
+        assert!((sum(&[1.0, 2.0, 3.0, 4.0, 5.0, 6.0]) - 21.0).abs() < 1e-12);
         // A window whose length is no multiple of any vector width.
         let win = SampleSet::new(&r, obs, 20, 401);
         let got = win.xyz_one(a.values());

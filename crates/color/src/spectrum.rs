@@ -143,11 +143,7 @@ impl Curve {
     /// Sum over the grid of `self × other` (Δλ = 1 nm).
     #[must_use]
     pub fn dot(&self, other: &[f64; GRID_LEN]) -> f64 {
-        self.values
-            .iter()
-            .zip(other.iter())
-            .map(|(a, b)| a * b)
-            .sum()
+        crate::spectral_weights::dot(self.values.as_slice(), other)
     }
 
     /// Whether every value is zero (or negative): nothing to measure.

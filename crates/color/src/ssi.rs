@@ -154,6 +154,20 @@ pub fn ssi_at_cct(test: &RelativeSpd, cct_k: f64) -> Result<Ssi> {
     ssi_of_bins(&binned(test, "light")?, &reference_bins(cct_k)?)
 }
 
+/// The unnormalised ten-nanometre bins SSI starts from (linear in the light).
+pub(crate) type RawBins = [f64; BINS];
+
+/// [`RawBins`] of a spectrum.
+pub(crate) fn raw_bins_of(spd: &RelativeSpd) -> RawBins {
+    raw_bins(spd.values())
+}
+
+/// SSI from the test light's raw bins (a light already checked as
+/// colorimetric) against the default reference at `cct_k`.
+pub(crate) fn ssi_of_raw_bins(test: &RawBins, cct_k: f64) -> Result<Ssi> {
+    ssi_of_bins(&normalised(*test, "light")?, &reference_bins(cct_k)?)
+}
+
 /// Steps 4–7 from the normalised bins of test and reference.
 fn ssi_of_bins(t: &[f64; BINS], r: &[f64; BINS]) -> Result<Ssi> {
     let mut wd = [0.0; BINS];

@@ -35,6 +35,7 @@
 //! - Luo, M. R., Cui, G., Li, C. (2006). Uniform colour spaces based on CIECAM02.
 //!   *Color Res. Appl.* 31(4), 320–330. doi:10.1002/col.20227
 
+use crate::batch_math::{atan2_in_place, exp_in_place, ln_in_place};
 use crate::cam02::{Cam02Ucs, delta_e_cam02ucs};
 use crate::cct::{CctDuv, CctMethod, cct_duv, uv1960_of_spd};
 use crate::cri::ReferenceKind;
@@ -154,6 +155,26 @@ pub fn rf_from_delta_e(delta_e: f64) -> f64 {
     let x = (100.0 - TM30_CF * delta_e) / 10.0;
     // softplus: ln(1 + eˣ) = max(x, 0) + ln(1 + e^−|x|)
     10.0 * (x.max(0.0) + (-x.abs()).exp().ln_1p())
+}
+
+/// [`rf_from_delta_e`] of many differences at once (vectorised `exp` and
+/// `ln`; `ln(1 + e)` for e ∈ (0, 1] loses nothing that shows in Rf).
+fn rf_from_delta_e_many(delta_e: &[f64]) -> Vec<f64> {
+    let x: Vec<f64> = delta_e
+        .iter()
+        .map(|d| (100.0 - TM30_CF * d) / 10.0)
+        .collect();
+    // e^−|x| underflows to 0 below −708; so does the term it feeds.
+    let mut e: Vec<f64> = x.iter().map(|x| -x.abs().min(700.0)).collect();
+    exp_in_place(&mut e);
+    for v in &mut e {
+        *v += 1.0;
+    }
+    ln_in_place(&mut e);
+    x.iter()
+        .zip(e)
+        .map(|(x, l)| 10.0 * (x.max(0.0) + l))
+        .collect()
 }
 
 /// CAM02-UCS J′a′b′ of the 99 samples under a light.
@@ -388,9 +409,19 @@ pub fn tm30(test: &RelativeSpd) -> Result<Tm30> {
 /// TM-30-20 of `test` whose CCT is already known (`cct`, Ohno 2014).
 pub fn tm30_with_cct(test: &RelativeSpd, cct: CctDuv) -> Result<Tm30> {
     test.check_colorimetric("light")?;
-    let set = CES_SET.as_ref().map_err(Clone::clone)?;
+    tm30_of_sums(&ces_set()?.xyz_one(test.values()), cct)
+}
+
+/// The 99 colour evaluation samples ready for summing under a light.
+pub(crate) fn ces_set() -> Result<&'static SampleSet> {
+    CES_SET.as_ref().map_err(Clone::clone)
+}
+
+/// TM-30 from the test light's CES sums (a light already checked as
+/// colorimetric) whose CCT is `cct`.
+pub(crate) fn tm30_of_sums(test: &SampleXyz, cct: CctDuv) -> Result<Tm30> {
     let (jab_r, kind, daylight_fraction) = reference_jab(cct.cct_k)?;
-    let jab_t = ces_jab(&set.xyz_one(test.values()))?;
+    let jab_t = ces_jab(test)?;
     tm30_from_jab(&jab_t, &jab_r, cct, kind, daylight_fraction)
 }
 
@@ -409,12 +440,14 @@ fn tm30_from_jab(
         .collect();
     let mean_de = de.iter().sum::<f64>() / de.len() as f64;
     let rf = rf_from_delta_e(mean_de);
-    let rf_ces = de.iter().map(|d| rf_from_delta_e(*d)).collect();
+    let rf_ces = rf_from_delta_e_many(&de);
 
-    let hues: Vec<f64> = jab_r
-        .iter()
-        .map(|r| r[2].atan2(r[1]).to_degrees().rem_euclid(360.0))
-        .collect();
+    let mut hues: Vec<f64> = jab_r.iter().map(|r| r[2]).collect();
+    let a: Vec<f64> = jab_r.iter().map(|r| r[1]).collect();
+    atan2_in_place(&mut hues, &a);
+    for h in &mut hues {
+        *h = h.to_degrees().rem_euclid(360.0);
+    }
     let mut count = [0usize; TM30_BINS];
     let mut sum_t = [[0.0; 2]; TM30_BINS];
     let mut sum_r = [[0.0; 2]; TM30_BINS];
@@ -492,6 +525,11 @@ mod tests {
         // Very large differences stay finite and tend to 0.
         let big = rf_from_delta_e(1e6);
         assert!(big.is_finite() && (0.0..1e-9).contains(&big));
+        // The vectorised form agrees with the one-at-a-time one.
+        let des = [0.0, 0.3, 1.0, 5.0, 14.86, 20.0, 60.0, 1e3, 1e6];
+        for (d, many) in des.iter().zip(rf_from_delta_e_many(&des)) {
+            assert!((many - rf_from_delta_e(*d)).abs() < 1e-12, "{d}: {many}");
+        }
     }
 
     #[test]

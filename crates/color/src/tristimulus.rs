@@ -83,18 +83,12 @@ impl Xyz {
 /// Unnormalised sums `Σ S(λ) x̄(λ) Δλ` etc. with Δλ = 1 nm.
 #[must_use]
 pub fn xyz_sums(values: &[f64; GRID_LEN], observer: &Observer) -> Xyz {
-    let (mut x, mut y, mut z) = (0.0, 0.0, 0.0);
-    for (((s, xb), yb), zb) in values
-        .iter()
-        .zip(&observer.x_bar)
-        .zip(&observer.y_bar)
-        .zip(&observer.z_bar)
-    {
-        x += s * xb;
-        y += s * yb;
-        z += s * zb;
-    }
-    Xyz::new(x, y, z)
+    use crate::spectral_weights::dot;
+    Xyz::new(
+        dot(values, &observer.x_bar),
+        dot(values, &observer.y_bar),
+        dot(values, &observer.z_bar),
+    )
 }
 
 /// XYZ of a light source normalised to Y = 100 (its white point).
