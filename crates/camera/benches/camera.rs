@@ -74,7 +74,10 @@ fn bench_compare(c: &mut Criterion) {
     };
     let pipeline = CameraPipeline::new(&camera, &settings, &light, training).expect("pipeline");
     let subjects: Vec<Reflectance> = training.reflectances()[..100].to_vec();
-    let signals = pipeline.scene().subjects(&subjects);
+    let signals = pipeline
+        .scene()
+        .expect("set up from a light")
+        .subjects(&subjects);
     let plain = CameraPipeline::new(&camera, &CameraSettings::default(), &light, training)
         .expect("pipeline");
     c.bench_function("compare_100_from_signals_default", |b| {

@@ -30,7 +30,7 @@
 
 use crate::correction::{ColorCorrection, FitData, FitMethod, fit_color_correction};
 use crate::error::Result;
-use crate::raw::SceneResponse;
+use crate::raw::{SceneResponse, SubjectSignal};
 use crate::sensitivities::CameraSensitivities;
 use crate::training::TrainingSet;
 use crate::white_balance::WbGains;
@@ -111,16 +111,24 @@ pub fn calibration_data(
     training: &TrainingSet,
 ) -> Result<FitData> {
     let scene = SceneResponse::new(camera, light, Observer::cie1931_2deg())?;
-    let gains = WbGains::from_neutral_raw(scene.white().raw_rgb)?;
-    let cat = cat16_to_d65(scene.white().xyz)?;
-    let signals = scene.subjects(training.reflectances());
+    calibration_data_from_signals(scene.white(), &scene.subjects(training.reflectances()))
+}
+
+/// [`calibration_data`] from signals already integrated under the light:
+/// its perfect white `white` and the training samples at the same exposure.
+pub fn calibration_data_from_signals(
+    white: SubjectSignal,
+    signals: &[SubjectSignal],
+) -> Result<FitData> {
+    let gains = WbGains::from_neutral_raw(white.raw_rgb)?;
+    let cat = cat16_to_d65(white.xyz)?;
     Ok(FitData {
         rgb: signals.iter().map(|s| gains.apply(s.raw_rgb)).collect(),
         xyz: signals
             .iter()
             .map(|s| apply_matrix(&cat, s.xyz).to_array())
             .collect(),
-        white_rgb: gains.apply(scene.white().raw_rgb),
+        white_rgb: gains.apply(white.raw_rgb),
         white_xyz: d65_white()?.to_array(),
     })
 }

@@ -41,7 +41,7 @@ pub use error::{CameraError, Result};
 pub use pipeline::{
     CameraPipeline, CameraSettings, Comparison, SubjectComparison, camera_metamers,
 };
-pub use raw::{SceneResponse, SubjectSignal, raw_signal};
+pub use raw::{SceneResponse, SignalSums, SubjectSignal, raw_signal};
 pub use sensitivities::CameraSensitivities;
 pub use training::TrainingSet;
 pub use white_balance::{WbGains, WbPreset, WhiteBalance};

@@ -22,12 +22,12 @@
 //! - See [`crate::calibration`], [`crate::white_balance`] for the camera steps.
 
 use crate::calibration::{
-    CalibrationLight, MatrixMode, calibrated_correction, cat16_to_d65, d65_white,
-    dual_illuminant_weight, fit_under_light,
+    CalibrationLight, MatrixMode, calibrated_correction, calibration_data_from_signals,
+    cat16_to_d65, d65_white, dual_illuminant_weight, fit_under_light,
 };
-use crate::correction::{ColorCorrection, DeltaEStats, FitMethod};
+use crate::correction::{ColorCorrection, DeltaEStats, FitMethod, fit_color_correction};
 use crate::display::{DisplayColor, DisplaySpace, DisplayTransform};
-use crate::error::Result;
+use crate::error::{CameraError, Result};
 use crate::locus::CameraLocus;
 use crate::raw::{SceneResponse, SubjectSignal};
 use crate::sensitivities::CameraSensitivities;
@@ -118,7 +118,10 @@ enum Corrections {
 pub struct CameraPipeline {
     camera: CameraSensitivities,
     settings: CameraSettings,
-    scene: SceneResponse,
+    /// Light × curves, when set up from the light's spectrum.
+    scene: Option<SceneResponse>,
+    /// The perfect white under the scene light (G = 1, Y = 1).
+    scene_white: SubjectSignal,
     locus: Arc<CameraLocus>,
     fixed_white_balance: Option<ResolvedWhiteBalance>,
     corrections: Corrections,
@@ -139,6 +142,64 @@ impl CameraPipeline {
         training: &TrainingSet,
     ) -> Result<CameraPipeline> {
         let scene = SceneResponse::new(camera, scene_light, Observer::cie1931_2deg())?;
+        let profile = if settings.matrix_mode == MatrixMode::SceneProfile {
+            Some(Arc::new(fit_under_light(
+                camera,
+                scene_light,
+                settings.fit_method,
+                training,
+            )?))
+        } else {
+            None
+        };
+        let white = scene.white();
+        CameraPipeline::set_up(camera, settings, Some(scene), white, profile, training)
+    }
+
+    /// Set up `camera` from signals already integrated under the scene light
+    /// (for instance mixed from each lamp's [`crate::raw::SignalSums`]): the
+    /// light's perfect white `scene_white` (G = 1, Y = 1) and, for a scene
+    /// profile, the training samples at the same exposure (`training_signals`,
+    /// in the order of `training`). Equal to [`CameraPipeline::new`] under
+    /// that light up to rounding. A pipeline set up this way compares
+    /// signals only ([`CameraPipeline::compare`] refuses reflectances).
+    pub fn from_signals(
+        camera: &CameraSensitivities,
+        settings: &CameraSettings,
+        scene_white: SubjectSignal,
+        training_signals: Option<&[SubjectSignal]>,
+        training: &TrainingSet,
+    ) -> Result<CameraPipeline> {
+        let profile = if settings.matrix_mode == MatrixMode::SceneProfile {
+            let signals = training_signals.ok_or_else(|| {
+                CameraError::InvalidInput(
+                    "a scene profile needs the training samples' signals under the scene light"
+                        .into(),
+                )
+            })?;
+            if signals.len() != training.len() {
+                return Err(CameraError::InvalidInput(format!(
+                    "{} training signals for a training set of {}",
+                    signals.len(),
+                    training.len()
+                )));
+            }
+            let data = calibration_data_from_signals(scene_white, signals)?;
+            Some(Arc::new(fit_color_correction(settings.fit_method, &data)?))
+        } else {
+            None
+        };
+        CameraPipeline::set_up(camera, settings, None, scene_white, profile, training)
+    }
+
+    fn set_up(
+        camera: &CameraSensitivities,
+        settings: &CameraSettings,
+        scene: Option<SceneResponse>,
+        scene_white: SubjectSignal,
+        profile: Option<Arc<ColorCorrection>>,
+        training: &TrainingSet,
+    ) -> Result<CameraPipeline> {
         let locus = CameraLocus::for_camera(camera)?;
         let fixed_white_balance = if settings.white_balance.depends_on_subjects() {
             None
@@ -146,34 +207,30 @@ impl CameraPipeline {
             Some(resolve_white_balance(
                 &settings.white_balance,
                 camera,
-                scene.white().raw_rgb,
+                scene_white.raw_rgb,
                 &[],
             )?)
         };
         let method = settings.fit_method;
-        let corrections = match settings.matrix_mode {
-            MatrixMode::Factory => Corrections::Single(calibrated_correction(
+        let corrections = match (settings.matrix_mode, profile) {
+            (MatrixMode::SceneProfile, Some(p)) => Corrections::Single(p),
+            (MatrixMode::DualIlluminant, _) => Corrections::Dual {
+                a: calibrated_correction(camera, CalibrationLight::A, method, training)?,
+                d65: calibrated_correction(camera, CalibrationLight::D65, method, training)?,
+            },
+            _ => Corrections::Single(calibrated_correction(
                 camera,
                 CalibrationLight::D65,
                 method,
                 training,
             )?),
-            MatrixMode::DualIlluminant => Corrections::Dual {
-                a: calibrated_correction(camera, CalibrationLight::A, method, training)?,
-                d65: calibrated_correction(camera, CalibrationLight::D65, method, training)?,
-            },
-            MatrixMode::SceneProfile => Corrections::Single(Arc::new(fit_under_light(
-                camera,
-                scene_light,
-                method,
-                training,
-            )?)),
         };
         Ok(CameraPipeline {
             camera: camera.clone(),
             settings: *settings,
-            eye_to_d65: cat16_to_d65(scene.white().xyz)?,
+            eye_to_d65: cat16_to_d65(scene_white.xyz)?,
             scene,
+            scene_white,
             locus,
             fixed_white_balance,
             corrections,
@@ -188,19 +245,26 @@ impl CameraPipeline {
         &self.settings
     }
 
-    /// The scene response (raw and XYZ integration) this pipeline uses.
+    /// The scene response (raw and XYZ integration) this pipeline uses;
+    /// `None` when it was set up from signals.
     #[must_use]
-    pub fn scene(&self) -> &SceneResponse {
-        &self.scene
+    pub fn scene(&self) -> Option<&SceneResponse> {
+        self.scene.as_ref()
     }
 
     /// Compare subjects given as reflectances.
     pub fn compare(&self, reflectances: &[Reflectance]) -> Result<Comparison> {
-        self.compare_signals(&self.scene.subjects(reflectances))
+        let scene = self.scene.as_ref().ok_or_else(|| {
+            CameraError::InvalidInput(
+                "this camera was set up from signals: compare signals, not reflectances".into(),
+            )
+        })?;
+        self.compare_signals(&scene.subjects(reflectances))
     }
 
-    /// Compare subjects whose signals were already integrated with [`CameraPipeline::scene`],
-    /// with the white balance estimated from these subjects (for automatic modes).
+    /// Compare subjects whose signals were already integrated under the
+    /// scene light (perfect white at G = 1, Y = 1), with the white balance
+    /// estimated from these subjects (for automatic modes).
     pub fn compare_signals(&self, signals: &[SubjectSignal]) -> Result<Comparison> {
         self.compare_signals_balanced(signals, self.white_balance_for(signals)?)
     }
@@ -215,20 +279,18 @@ impl CameraPipeline {
             None => resolve_white_balance(
                 &self.settings.white_balance,
                 &self.camera,
-                self.scene.white().raw_rgb,
+                self.scene_white.raw_rgb,
                 frame,
             ),
         }
     }
 
-    /// Compare subjects with a white balance already chosen for the frame
-    /// (see [`CameraPipeline::white_balance_for`]), as one frame is shot:
-    /// every part of it through the same gains and matrix.
-    pub fn compare_signals_balanced(
+    /// The CCT the camera infers from `white_balance` (its locus) and the
+    /// colour correction it then applies.
+    pub fn correction_for(
         &self,
-        signals: &[SubjectSignal],
         white_balance: ResolvedWhiteBalance,
-    ) -> Result<Comparison> {
+    ) -> Result<(Option<f64>, ColorCorrection)> {
         let estimated_cct_k = self
             .locus
             .nearest(white_balance.gains.neutral_raw())
@@ -239,6 +301,18 @@ impl CameraPipeline {
                 ColorCorrection::blend(a, d65, estimated_cct_k.map_or(1.0, dual_illuminant_weight))?
             }
         };
+        Ok((estimated_cct_k, correction))
+    }
+
+    /// Compare subjects with a white balance already chosen for the frame
+    /// (see [`CameraPipeline::white_balance_for`]), as one frame is shot:
+    /// every part of it through the same gains and matrix.
+    pub fn compare_signals_balanced(
+        &self,
+        signals: &[SubjectSignal],
+        white_balance: ResolvedWhiteBalance,
+    ) -> Result<Comparison> {
+        let (estimated_cct_k, correction) = self.correction_for(white_balance)?;
         // Per subject: balance and matrix (camera), adaptation (eye); then the
         // CIELAB conversions and CIEDE2000 of all subjects at once.
         let balanced: Vec<[f64; 3]> = signals
@@ -358,6 +432,66 @@ mod tests {
 
     fn demo(i: usize) -> CameraSensitivities {
         CameraSensitivities::demo_cameras().unwrap()[i].clone()
+    }
+
+    #[test]
+    fn set_up_from_mixed_signals_equals_set_up_from_the_light() {
+        use crate::raw::SignalSums;
+        let t = TrainingSet::standard().unwrap();
+        let cam = demo(1);
+        let obs = Observer::cie1931_2deg();
+        let a = StandardIlluminant::A.spd().unwrap();
+        let f11 = StandardIlluminant::F(11).spd().unwrap();
+        let light = RelativeSpd::weighted_sum([(0.6, &a), (1.7, &f11)]);
+        let subjects = [
+            Reflectance::from_fn(|_| 0.18),
+            Reflectance::from_fn(|wl| 0.1 + 0.7 * (-((wl - 610.0) / 40.0).powi(2)).exp()),
+            Reflectance::from_fn(|wl| 0.05 + 0.5 * (-((wl - 470.0) / 30.0).powi(2)).exp()),
+        ];
+        let mix = |set: &[Reflectance]| {
+            let [pa, pf] = [&a, &f11].map(|l| SignalSums::of(&cam, l.values(), obs, set));
+            SignalSums::mix(&[(0.6, &pa), (1.7, &pf)]).unwrap()
+        };
+        let subject_sums = mix(&subjects);
+        let training_sums = mix(t.reflectances());
+        let scale = subject_sums.scale();
+        for matrix_mode in [MatrixMode::Factory, MatrixMode::SceneProfile] {
+            let settings = CameraSettings {
+                white_balance: WhiteBalance::GreyCard { subject: Some(0) },
+                matrix_mode,
+                ..CameraSettings::default()
+            };
+            let direct = CameraPipeline::new(&cam, &settings, &light, t)
+                .unwrap()
+                .compare(&subjects)
+                .unwrap();
+            let p = CameraPipeline::from_signals(
+                &cam,
+                &settings,
+                subject_sums.white_signal(),
+                Some(&training_sums.signals(scale)),
+                t,
+            )
+            .unwrap();
+            assert!(p.compare(&subjects).is_err(), "reflectances are refused");
+            let via = p.compare_signals(&subject_sums.signals(scale)).unwrap();
+            for (d, v) in direct.subjects.iter().zip(&via.subjects) {
+                assert!(
+                    (d.delta_e_ciede2000 - v.delta_e_ciede2000).abs() < 1e-9,
+                    "{matrix_mode:?}: {} {}",
+                    d.delta_e_ciede2000,
+                    v.delta_e_ciede2000
+                );
+                assert!((d.camera_lab.a - v.camera_lab.a).abs() < 1e-9);
+            }
+        }
+        let profile = CameraSettings {
+            matrix_mode: MatrixMode::SceneProfile,
+            ..CameraSettings::default()
+        };
+        let white = subject_sums.white_signal();
+        assert!(CameraPipeline::from_signals(&cam, &profile, white, None, t).is_err());
+        assert!(CameraPipeline::from_signals(&cam, &profile, white, Some(&[white]), t).is_err());
     }
 
     #[test]

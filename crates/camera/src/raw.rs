@@ -132,6 +132,106 @@ impl SceneResponse {
     }
 }
 
+/// Unnormalised sums of many surfaces under one light, for one camera and
+/// one observer: `Σ S·ρ·s̄_c` for the camera's R, G, B and `Σ S·ρ·x̄` etc. for
+/// the eye, in that order, and the same for the light itself (a perfect white).
+///
+/// Linear in the light: the sums under `Σ wᵢ·Sᵢ` are `Σ wᵢ·sumsᵢ`
+/// ([`SignalSums::mix`]), so a lighting plan integrates each source once and
+/// mixes for every level. [`SignalSums::signals`] sets the exposure.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SignalSums {
+    /// The light on a perfect white: `[R, G, B, X, Y, Z]`.
+    pub white: [f64; 6],
+    /// Each surface, in order: `[R, G, B, X, Y, Z]`.
+    pub surfaces: Vec<[f64; 6]>,
+}
+
+impl SignalSums {
+    /// The sums of `reflectances` under `light` (any non-negative spectrum on
+    /// the grid; no check: a dark light gives zero sums).
+    #[must_use]
+    pub fn of<'a>(
+        camera: &CameraSensitivities,
+        light: &[f64; GRID_LEN],
+        observer: &Observer,
+        reflectances: impl IntoIterator<Item = &'a Reflectance>,
+    ) -> SignalSums {
+        let [r, g, b] = camera.channels().map(|c| c.values());
+        let weight = |c: &[f64; GRID_LEN]| -> Vec<f64> {
+            light.iter().zip(c).map(|(l, c)| l * c).collect()
+        };
+        let w = [
+            weight(r),
+            weight(g),
+            weight(b),
+            weight(&observer.x_bar),
+            weight(&observer.y_bar),
+            weight(&observer.z_bar),
+        ];
+        let mut rows: Vec<&[f64]> = vec![&[1.0; GRID_LEN]];
+        rows.extend(reflectances.into_iter().map(|r| r.values().as_slice()));
+        let mut sums = weighted_sums_6(&rows, [&w[0], &w[1], &w[2], &w[3], &w[4], &w[5]]);
+        let white = sums.remove(0);
+        SignalSums {
+            white,
+            surfaces: sums,
+        }
+    }
+
+    /// `Σ wᵢ·partᵢ` (all parts over the same surfaces); `None` for no parts.
+    #[must_use]
+    pub fn mix(parts: &[(f64, &SignalSums)]) -> Option<SignalSums> {
+        let n = parts.first()?.1.surfaces.len();
+        let mut out = SignalSums {
+            white: [0.0; 6],
+            surfaces: vec![[0.0; 6]; n],
+        };
+        for (w, p) in parts {
+            for (o, v) in out.white.iter_mut().zip(&p.white) {
+                *o += w * v;
+            }
+            for (acc, s) in out.surfaces.iter_mut().zip(&p.surfaces) {
+                for (o, v) in acc.iter_mut().zip(s) {
+                    *o += w * v;
+                }
+            }
+        }
+        Some(out)
+    }
+
+    /// Raw G and Y of the light itself (its exposure scale).
+    #[must_use]
+    pub fn scale(&self) -> (f64, f64) {
+        (self.white[1], self.white[4])
+    }
+
+    /// The surfaces' signals with the camera divided by `raw_g` and the eye
+    /// by `y`: with this light's own [`SignalSums::scale`], the perfect white
+    /// reads G = 1 and Y = 1 as in [`SceneResponse`]; with another light's
+    /// scale, the surfaces are at that light's exposure.
+    #[must_use]
+    pub fn signals(&self, (raw_g, y): (f64, f64)) -> Vec<SubjectSignal> {
+        self.surfaces
+            .iter()
+            .map(|s| signal_of(s, raw_g, y))
+            .collect()
+    }
+
+    /// The light's own perfect white, G = 1 and Y = 1.
+    #[must_use]
+    pub fn white_signal(&self) -> SubjectSignal {
+        signal_of(&self.white, self.white[1], self.white[4])
+    }
+}
+
+fn signal_of(s: &[f64; 6], raw_g: f64, y: f64) -> SubjectSignal {
+    SubjectSignal {
+        raw_rgb: [s[0] / raw_g, s[1] / raw_g, s[2] / raw_g],
+        xyz: Xyz::new(s[3] / y, s[4] / y, s[5] / y),
+    }
+}
+
 /// Raw signal `[R, G, B]` of one surface under one light, perfect white at G = 1.
 pub fn raw_signal(
     camera: &CameraSensitivities,
@@ -172,6 +272,39 @@ mod tests {
             assert!((s.white().raw_rgb[1] - 1.0).abs() < 1e-12);
             assert!((s.white().xyz.y - 1.0).abs() < 1e-12);
         }
+    }
+
+    #[test]
+    fn sums_match_the_scene_response_and_mix_linearly() {
+        let cam = CameraSensitivities::demo_cameras().unwrap()[1].clone();
+        let obs = Observer::cie1931_2deg();
+        let a = StandardIlluminant::A.spd().unwrap();
+        let f11 = StandardIlluminant::F(11).spd().unwrap();
+        let refl = [
+            Reflectance::from_fn(|wl| 0.2 + 0.6 * ((wl - 360.0) / 470.0)),
+            Reflectance::from_fn(|wl| 0.5 + 0.4 * (wl / 40.0).sin()),
+        ];
+        let mixed = RelativeSpd::weighted_sum([(0.4, &a), (2.5, &f11)]);
+        let parts = [a, f11].map(|l| SignalSums::of(&cam, l.values(), obs, &refl));
+        let mix = SignalSums::mix(&[(0.4, &parts[0]), (2.5, &parts[1])]).unwrap();
+        let scene = SceneResponse::new(&cam, &mixed, obs).unwrap();
+        let want = scene.subjects(&refl);
+        let got = mix.signals(mix.scale());
+        for (g, w) in got.iter().zip(&want) {
+            for k in 0..3 {
+                assert!((g.raw_rgb[k] - w.raw_rgb[k]).abs() < 1e-12, "{g:?} {w:?}");
+            }
+            for (u, v) in g.xyz.to_array().iter().zip(w.xyz.to_array()) {
+                assert!((u - v).abs() < 1e-12);
+            }
+        }
+        let white = mix.white_signal();
+        assert!((white.raw_rgb[1] - 1.0).abs() < 1e-15 && (white.xyz.y - 1.0).abs() < 1e-15);
+        assert!((white.raw_rgb[0] - scene.white().raw_rgb[0]).abs() < 1e-12);
+        // Another light's scale puts the surfaces at that light's exposure.
+        let half = mix.signals((2.0 * mix.scale().0, 2.0 * mix.scale().1));
+        assert!((half[0].raw_rgb[1] - got[0].raw_rgb[1] / 2.0).abs() < 1e-15);
+        assert!(SignalSums::mix(&[]).is_none());
     }
 
     #[test]

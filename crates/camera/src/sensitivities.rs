@@ -155,12 +155,24 @@ impl CameraSensitivities {
     /// computed from them within one run of the program.
     #[must_use]
     pub fn fingerprint(&self) -> u64 {
-        let mut h = std::collections::hash_map::DefaultHasher::new();
+        // Four independent multiply–rotate chains over the curves' bits (it is
+        // computed on every set-up, so it must not wait on one long chain),
+        // then the lanes through a standard hasher.
+        const K: u64 = 0x9E37_79B9_7F4A_7C15;
+        let mut lanes = [1u64, 2, 3, 4];
         for ch in self.channels() {
-            for v in ch.values() {
-                v.to_bits().hash(&mut h);
+            let mut chunks = ch.values().chunks_exact(4);
+            for c in &mut chunks {
+                for (l, v) in lanes.iter_mut().zip(c) {
+                    *l = (l.rotate_left(23) ^ v.to_bits()).wrapping_mul(K);
+                }
+            }
+            for v in chunks.remainder() {
+                lanes[0] = (lanes[0].rotate_left(23) ^ v.to_bits()).wrapping_mul(K);
             }
         }
+        let mut h = std::collections::hash_map::DefaultHasher::new();
+        lanes.hash(&mut h);
         h.finish()
     }
 }
