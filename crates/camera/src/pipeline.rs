@@ -312,7 +312,18 @@ impl CameraPipeline {
         signals: &[SubjectSignal],
         white_balance: ResolvedWhiteBalance,
     ) -> Result<Comparison> {
-        let (estimated_cct_k, correction) = self.correction_for(white_balance)?;
+        self.compare_signals_corrected(signals, white_balance, self.correction_for(white_balance)?)
+    }
+
+    /// [`CameraPipeline::compare_signals_balanced`] with the inferred CCT and
+    /// correction already found by [`CameraPipeline::correction_for`] for
+    /// `white_balance` (one frame shot in parts: find them once).
+    pub fn compare_signals_corrected(
+        &self,
+        signals: &[SubjectSignal],
+        white_balance: ResolvedWhiteBalance,
+        (estimated_cct_k, correction): (Option<f64>, ColorCorrection),
+    ) -> Result<Comparison> {
         // Per subject: balance and matrix (camera), adaptation (eye); then the
         // CIELAB conversions and CIEDE2000 of all subjects at once.
         let balanced: Vec<[f64; 3]> = signals

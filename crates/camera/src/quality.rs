@@ -34,7 +34,8 @@ use lampwright_color::GRID_LEN;
 use lampwright_color::RelativeSpd;
 use lampwright_color::observer::Observer;
 use nalgebra::DMatrix;
-use std::sync::LazyLock;
+use std::collections::HashMap;
+use std::sync::{LazyLock, Mutex, PoisonError};
 
 fn sensitivity_matrix(camera: &CameraSensitivities) -> DMatrix<f64> {
     let ch = camera.channels();
@@ -73,6 +74,25 @@ static CMF: LazyLock<Result<(DMatrix<f64>, DMatrix<f64>)>> = LazyLock::new(|| {
 /// Luther residual and Vora–Trussell µ-factor together: one orthonormal
 /// basis of the camera's curves serves both.
 pub fn luther_and_mu(camera: &CameraSensitivities) -> Result<(f64, f64)> {
+    // They depend on the curves alone: kept for the run, per camera curves.
+    static KEPT: LazyLock<Mutex<HashMap<u64, (f64, f64)>>> =
+        LazyLock::new(|| Mutex::new(HashMap::new()));
+    let key = camera.fingerprint();
+    if let Some(hit) = KEPT
+        .lock()
+        .unwrap_or_else(PoisonError::into_inner)
+        .get(&key)
+    {
+        return Ok(*hit);
+    }
+    let figures = luther_and_mu_uncached(camera)?;
+    KEPT.lock()
+        .unwrap_or_else(PoisonError::into_inner)
+        .insert(key, figures);
+    Ok(figures)
+}
+
+fn luther_and_mu_uncached(camera: &CameraSensitivities) -> Result<(f64, f64)> {
     let (c, o_c) = CMF.as_ref().map_err(Clone::clone)?;
     let u = orthonormal_basis(sensitivity_matrix(camera), &camera.name)?;
     let projected = &u * (u.transpose() * c);

@@ -158,9 +158,8 @@ impl SignalSums {
         reflectances: impl IntoIterator<Item = &'a Reflectance>,
     ) -> SignalSums {
         let [r, g, b] = camera.channels().map(|c| c.values());
-        let weight = |c: &[f64; GRID_LEN]| -> Vec<f64> {
-            light.iter().zip(c).map(|(l, c)| l * c).collect()
-        };
+        let weight =
+            |c: &[f64; GRID_LEN]| -> Vec<f64> { light.iter().zip(c).map(|(l, c)| l * c).collect() };
         let w = [
             weight(r),
             weight(g),

@@ -151,6 +151,11 @@ impl<F: Fn(f64, f64) -> f64> pulp::WithSimd for Binary<'_, F> {
 
 /// `exp` of every element, in place.
 pub fn exp_in_place(x: &mut [f64]) {
+    // The common case has no special values: no copy needed to fix them up.
+    if x.iter().all(|v| v.abs() <= EXP_LIMIT) {
+        in_place(x, exp_core);
+        return;
+    }
     let original: Vec<f64> = x.to_vec();
     in_place(x, exp_core);
     for (v, o) in x.iter_mut().zip(original) {
@@ -160,13 +165,41 @@ pub fn exp_in_place(x: &mut [f64]) {
     }
 }
 
+/// Whether `ln_core` covers `v` (positive, normal, finite).
+fn ln_covers(v: f64) -> bool {
+    v.is_normal() && v > 0.0
+}
+
 /// `ln` of every element, in place.
 pub fn ln_in_place(x: &mut [f64]) {
+    if x.iter().all(|v| ln_covers(*v)) {
+        in_place(x, ln_core);
+        return;
+    }
     let original: Vec<f64> = x.to_vec();
     in_place(x, ln_core);
     for (v, o) in x.iter_mut().zip(original) {
-        if !(o.is_normal() && o > 0.0) {
+        if !ln_covers(o) {
             *v = o.ln();
+        }
+    }
+}
+
+/// `x^p` for positive normal x and |p| ≤ 0.95 as one kernel: |p·ln x| stays
+/// within `exp_core`'s range, so no fix-up is needed.
+struct PowKernel<'a> {
+    x: &'a mut [f64],
+    p: f64,
+}
+
+impl pulp::WithSimd for PowKernel<'_> {
+    type Output = ();
+    #[allow(clippy::inline_always)] // must inline into the dispatched function
+    #[inline(always)]
+    fn with_simd<S: pulp::Simd>(self, _simd: S) {
+        let p = self.p;
+        for v in self.x.iter_mut() {
+            *v = exp_core(p * ln_core(*v));
         }
     }
 }
@@ -174,6 +207,12 @@ pub fn ln_in_place(x: &mut [f64]) {
 /// `x^p` of every element for x ≥ 0 (as `exp(p·ln x)`), 0 for x ≤ 0 and NaN
 /// for NaN, in place.
 pub fn pow_nonnegative_in_place(x: &mut [f64], p: f64) {
+    // One pass, no copies, when every value is in the kernel's range (the
+    // same operations as the general path, so the same results).
+    if p.abs() <= 0.95 && x.iter().all(|v| ln_covers(*v)) {
+        pulp::Arch::new().dispatch(PowKernel { x, p });
+        return;
+    }
     let original: Vec<f64> = x.to_vec();
     ln_in_place(x);
     for v in x.iter_mut() {

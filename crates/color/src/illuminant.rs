@@ -8,7 +8,9 @@
 //! - Planck's law with c2 = 1.4388 × 10⁻² m·K (ITS-90 value, CIE 15:2018 §3.1).
 
 use crate::error::{ColorError, Result};
-use crate::spectrum::{Coverage, GRID_LEN, RelativeSpd, grid_wavelength_nm, grid_wavelengths_nm};
+use crate::spectrum::{
+    Coverage, GRID_LEN, GRID_START_NM, RelativeSpd, grid_wavelength_nm, grid_wavelengths_nm,
+};
 use crate::table::AssetTable;
 use std::collections::HashMap;
 use std::sync::LazyLock;
@@ -34,12 +36,30 @@ pub fn planckian(t_kelvin: f64) -> Result<RelativeSpd> {
             range: "100–1 000 000 K",
         });
     }
-    let m = |wl_nm: f64| {
-        let wl = wl_nm * 1e-9;
-        wl.powi(-5) / (C2_M_K / (wl * t_kelvin)).exp_m1()
-    };
-    let norm = 100.0 / m(560.0);
-    Ok(RelativeSpd::from_fn(|wl| m(wl) * norm))
+    // The exponentials of the whole grid at once (vectorised); exp(x) − 1
+    // loses digits only for small x, which takes `exp_m1` (above ~170 000 K).
+    let x: Vec<f64> = (0..GRID_LEN)
+        .map(|i| C2_M_K / (grid_wavelength_nm(i) * 1e-9 * t_kelvin))
+        .collect();
+    let mut e = x.clone();
+    crate::batch_math::exp_in_place(&mut e);
+    let m: Vec<f64> = (0..GRID_LEN)
+        .map(|i| {
+            let wl = grid_wavelength_nm(i) * 1e-9;
+            let denom = if x[i] < 0.1 {
+                x[i].exp_m1()
+            } else {
+                e[i] - 1.0
+            };
+            wl.powi(-5) / denom
+        })
+        .collect();
+    let norm = 100.0 / m[(560 - GRID_START_NM) as usize];
+    let mut values = [0.0; GRID_LEN];
+    for (v, m) in values.iter_mut().zip(&m) {
+        *v = m * norm;
+    }
+    RelativeSpd::from_grid(values, Coverage::FULL)
 }
 
 /// CIE standard illuminant A from its defining formula (CIE 15:2018 eq. 4.1),

@@ -78,7 +78,11 @@ impl LightSums {
         }
         let tcs: Vec<(f64, &SampleXyz)> = parts.iter().map(|(w, p)| (*w, &p.tcs)).collect();
         let ces: Vec<(f64, &SampleXyz)> = parts.iter().map(|(w, p)| (*w, &p.ces)).collect();
-        debug_assert!(parts.iter().all(|(_, p)| p.ces.samples.len() == first.ces.samples.len()));
+        debug_assert!(
+            parts
+                .iter()
+                .all(|(_, p)| p.ces.samples.len() == first.ces.samples.len())
+        );
         Some(LightSums {
             xyz,
             tcs: SampleXyz::combine(&tcs),
@@ -139,7 +143,10 @@ mod tests {
         });
         let parts = [(0.7, &f2), (1.3, &a), (25.0, &led)];
         let mixed = RelativeSpd::weighted_sum(parts.iter().map(|(w, s)| (*w, *s)));
-        let sums: Vec<LightSums> = parts.iter().map(|(_, s)| LightSums::of(s).unwrap()).collect();
+        let sums: Vec<LightSums> = parts
+            .iter()
+            .map(|(_, s)| LightSums::of(s).unwrap())
+            .collect();
         let weighted: Vec<(f64, &LightSums)> =
             parts.iter().zip(&sums).map(|((w, _), s)| (*w, s)).collect();
         let mix = LightSums::mix(&weighted).unwrap();

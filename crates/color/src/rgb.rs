@@ -157,6 +157,30 @@ pub fn srgb_decode(encoded: f64) -> f64 {
     l.copysign(encoded)
 }
 
+/// 8-bit swatch values of many light-linear triples at once, each as
+/// [`LinearRgb::to_rgb8_clamped`] gives it (clamped to [0, 1] in linear
+/// light, NaN as 0, sRGB-encoded, rounded), with the powers vectorised.
+#[must_use]
+pub fn rgb8_clamped_many(linear: &[[f64; 3]]) -> Vec<[u8; 3]> {
+    let mut v: Vec<f64> = linear
+        .iter()
+        .flatten()
+        .map(|x| if x.is_nan() { 0.0 } else { x.clamp(0.0, 1.0) })
+        .collect();
+    let mut p = v.clone();
+    crate::batch_math::pow_nonnegative_in_place(&mut p, 1.0 / 2.4);
+    for (x, p) in v.iter_mut().zip(&p) {
+        *x = if *x <= 0.0031308 {
+            12.92 * *x
+        } else {
+            1.055 * p - 0.055
+        };
+    }
+    v.chunks_exact(3)
+        .map(|c| [to_u8(c[0]), to_u8(c[1]), to_u8(c[2])])
+        .collect()
+}
+
 /// Light-linear RGB in space `S` (1 = the display white's component).
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct LinearRgb<S: RgbSpace> {
@@ -296,6 +320,23 @@ impl<S: RgbSpace> EncodedRgb<S> {
 #[cfg(test)]
 #[allow(clippy::float_cmp)] // Exact zero and exact mirroring are the properties under test.
 mod tests {
+    #[test]
+    fn many_swatches_equal_one_at_a_time() {
+        let mut triples: Vec<[f64; 3]> = (0..20_000)
+            .map(|i| {
+                let t = f64::from(i) / 19_999.0;
+                [t * 1.2 - 0.1, t * t, (1.0 - t).powi(3) * 1.05]
+            })
+            .collect();
+        triples.push([f64::NAN, f64::INFINITY, f64::NEG_INFINITY]);
+        triples.push([0.0031308, 0.0031309, 1.0]);
+        let many = rgb8_clamped_many(&triples);
+        for (t, m) in triples.iter().zip(&many) {
+            let one = LinearRgb::<Srgb>::new(t[0], t[1], t[2]).to_rgb8_clamped();
+            assert_eq!(*m, one, "{t:?}");
+        }
+    }
+
     use super::*;
     use proptest::prelude::*;
 

@@ -106,20 +106,21 @@ impl SampleSet {
         self.reflectance.len() / self.len.max(1)
     }
 
-    /// The three products of `light` with x̄, ȳ, z̄ over the window.
-    fn weighted(&self, light: &[f64; GRID_LEN]) -> [Vec<f64>; 3] {
-        let s = &light[self.start..self.start + self.len];
-        self.cmf
-            .each_ref()
-            .map(|c| s.iter().zip(c).map(|(s, c)| s * c).collect())
-    }
-
     /// Tristimulus sums of every sample under `light`.
     pub(crate) fn xyz_one(&self, light: &[f64; GRID_LEN]) -> SampleXyz {
-        let w = self.weighted(light);
-        let white = w.each_ref().map(|c| sum(c));
+        // The three products of the light with x̄, ȳ, z̄ over the window, on
+        // the stack (they are re-read once per sample).
+        let s = &light[self.start..self.start + self.len];
+        let mut w = [[0.0; GRID_LEN]; 3];
+        for (wk, c) in w.iter_mut().zip(&self.cmf) {
+            for ((o, s), c) in wk.iter_mut().zip(s).zip(c) {
+                *o = s * c;
+            }
+        }
+        let w = w.each_ref().map(|c| &c[..self.len]);
+        let white = w.map(sum);
         let rows: Vec<&[f64]> = self.reflectance.chunks_exact(self.len.max(1)).collect();
-        let sums = weighted_sums_3(&rows, [&w[0], &w[1], &w[2]]);
+        let sums = weighted_sums_3(&rows, w);
         SampleXyz {
             samples: sums
                 .into_iter()

@@ -2,7 +2,7 @@
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use lampwright_plan::engine::Evaluator;
-use lampwright_plan::{Plan, SourceRole, WhiteBalanceSetting, evaluate, load_plan};
+use lampwright_plan::{MatrixMode, Plan, SourceRole, WhiteBalanceSetting, evaluate, load_plan};
 use std::hint::black_box;
 use std::path::Path;
 
@@ -51,6 +51,30 @@ fn bench(c: &mut Criterion) {
                 k = k.wrapping_add(1);
                 changed.sources[background].level_lux = base * (1.0 + f64::from(k % 64) / 64.0);
                 engine.evaluate(black_box(&changed)).expect("evaluates")
+            });
+        },
+    );
+    // The same with a scene profile: the camera's matrix is fitted under the
+    // main zone's light, so a key level change refits it.
+    let mut profiled = cafe();
+    profiled.camera.matrix = MatrixMode::SceneProfile;
+    evaluate(&profiled).expect("the café demo evaluates with a scene profile");
+    c.bench_function("evaluate café demo, scene profile", |b| {
+        b.iter(|| evaluate(black_box(&profiled)).expect("evaluates"));
+    });
+    let mut engine_profiled = Evaluator::new();
+    engine_profiled.evaluate(&profiled).expect("evaluates");
+    let base = profiled.sources[key].level_lux;
+    c.bench_function(
+        "evaluator: café demo, scene profile, after one key level change",
+        |b| {
+            let mut k = 0u32;
+            b.iter(|| {
+                k = k.wrapping_add(1);
+                profiled.sources[key].level_lux = base * (1.0 + f64::from(k % 64) / 64.0);
+                engine_profiled
+                    .evaluate(black_box(&profiled))
+                    .expect("evaluates")
             });
         },
     );

@@ -19,15 +19,20 @@ use crate::error::{PlanError, Result};
 use crate::evaluation::{
     Evaluation, LightFigures, SourceFigures, SubjectResult, Summary, Tm30Bins, ZoneEvaluation,
 };
+use crate::model::CameraRef;
 use crate::model::{Plan, Source, SourceId, SourceRole, ZoneLevel};
-use crate::render::CameraStage;
+use crate::render::{CameraStage, ZoneLight};
 use crate::resolve;
-use lampwright_color::cct::{CctDuv, CctMethod, cct_duv_of_spd, mired};
+use lampwright_camera::raw::SignalSums;
+use lampwright_camera::{CameraSensitivities, TrainingSet};
+use lampwright_color::cct::{CctDuv, mired};
+use lampwright_color::light_sums::LightSums;
 use lampwright_color::observer::{Observer, v_lambda};
 use lampwright_color::photometry::{ev100_from_illuminance_lux, illuminance_lux};
 use lampwright_color::spaces::Uv1960;
-use lampwright_color::spectrum::{Curve, GRID_LEN, RelativeSpd, SpectralIrradiance};
-use lampwright_color::tristimulus::{KM_LM_PER_W, xyz_sums};
+use lampwright_color::spectrum::{Curve, GRID_LEN, SpectralIrradiance};
+use lampwright_color::tristimulus::KM_LM_PER_W;
+use std::sync::Arc;
 
 /// Below this illuminance a mix counts as dark: no colour figures.
 pub const DARK_LUX: f64 = 1e-6;
@@ -63,6 +68,11 @@ pub struct SourceLight {
     pub gel_transmission: f64,
     /// Measured range of the lamp and gel data.
     pub coverage: lampwright_color::Coverage,
+    /// The weighted sums of `per_lux` that the light figures need (mixed
+    /// linearly per zone).
+    pub sums: Arc<LightSums>,
+    /// CCT and Duv of the source's own light (any level above zero).
+    pub cct: Option<CctDuv>,
 }
 
 impl SourceLight {
@@ -103,16 +113,26 @@ pub fn source_light(plan: &Plan, source: &Source) -> Result<SourceLight> {
         });
     }
     let gel_transmission = illuminance_of(&resolved.filtered) / lamp_lux_per_unit;
+    let per_lux = resolved.filtered.to_irradiance(1.0 / lamp_lux_per_unit);
+    let sums =
+        LightSums::of(&per_lux.to_relative()).map_err(|e| PlanError::color_in(&context, e))?;
+    // As `cct_duv_of_spd` would: none for data that stop short of the visible range.
+    let cct = per_lux
+        .check_colorimetric(&context)
+        .ok()
+        .and_then(|()| sums.cct().ok());
     Ok(SourceLight {
         id: source.id,
         name: source.name.clone(),
         role: source.role,
         lit: plan.is_lit(source),
-        per_lux: resolved.filtered.to_irradiance(1.0 / lamp_lux_per_unit),
+        per_lux,
         level_lux: source.level_lux,
         dimmer_flux: resolved.lamp.flux_factor(),
         gel_transmission,
         coverage: resolved.filtered.coverage(),
+        sums: Arc::new(sums),
+        cct,
     })
 }
 
@@ -210,49 +230,58 @@ fn zone_mixes(plan: &Plan, sources: &[SourceLight]) -> Result<Vec<ZoneMix>> {
         .collect()
 }
 
-fn mix_spectrum(sources: &[SourceLight], parts: &[(usize, f64)]) -> SpectralIrradiance {
-    let lit = parts
+/// The lit parts of a zone's mix: (index into sources, weight on the
+/// source's per-lux light).
+fn lit_parts(sources: &[SourceLight], parts: &[(usize, f64)]) -> Vec<(usize, f64)> {
+    parts
         .iter()
         .filter(|(i, _)| sources[*i].lit)
-        .map(|(i, lux)| {
-            (
-                lux * sources[*i].dimmer_flux,
-                sources[*i].per_lux.to_relative(),
-            )
-        });
-    let spds: Vec<(f64, RelativeSpd)> = lit.collect();
-    RelativeSpd::weighted_sum(spds.iter().map(|(w, s)| (*w, s))).to_irradiance(1.0)
+        .map(|(i, lux)| (*i, lux * sources[*i].dimmer_flux))
+        .collect()
+}
+
+fn mix_spectrum(sources: &[SourceLight], lit: &[(usize, f64)]) -> SpectralIrradiance {
+    SpectralIrradiance::weighted_sum(lit.iter().map(|(i, w)| (*w, &sources[*i].per_lux)))
+}
+
+/// The light-figure sums of a zone's mix; `None` when nothing is lit.
+fn mix_sums(sources: &[SourceLight], lit: &[(usize, f64)]) -> Option<LightSums> {
+    let parts: Vec<(f64, &LightSums)> = lit.iter().map(|(i, w)| (*w, &*sources[*i].sums)).collect();
+    LightSums::mix(&parts)
 }
 
 /// Light figures of a mix. Figures that cannot be computed are `None` and a
 /// warning names the zone and the reason.
-fn light_figures(mix: &SpectralIrradiance, zone: &str, warnings: &mut Vec<String>) -> LightFigures {
+fn light_figures(
+    mix: &SpectralIrradiance,
+    sums: Option<&LightSums>,
+    zone: &str,
+    warnings: &mut Vec<String>,
+) -> LightFigures {
     let lux = illuminance_lux(mix);
     let mut fig = LightFigures {
         spectrum: mix.values().to_vec(),
         illuminance_lux: lux,
         ..LightFigures::default()
     };
-    if lux <= DARK_LUX {
+    let Some(sums) = sums.filter(|_| lux > DARK_LUX) else {
         warnings.push(format!(
             "{zone}: no light reaches it (all sources off or at zero)"
         ));
         return fig;
-    }
+    };
     fig.ev100 = ev100_from_illuminance_lux(lux).ok();
-    let xyz = xyz_sums(mix.values(), Observer::cie1931_2deg());
-    if let Some((x, y)) = xyz.chromaticity() {
+    if let Some((x, y)) = sums.xyz().chromaticity() {
         fig.xy = Some([x, y]);
         let uv = Uv1960::from_xy(x, y);
         fig.uv = Some([uv.u, uv.v]);
     }
-    let spd = mix.to_relative();
-    if let Err(e) = spd.check_colorimetric(zone) {
+    if let Err(e) = mix.check_colorimetric(zone) {
         warnings.push(e.to_string());
         return fig;
     }
     // One CCT serves CRI, TM-30 and SSI (each takes its reference at it).
-    let cct = match cct_duv_of_spd(&spd, CctMethod::Ohno2014) {
+    let cct = match sums.cct() {
         Ok(c) => {
             fig.cct_k = Some(c.cct_k);
             fig.duv = Some(c.duv);
@@ -267,7 +296,8 @@ fn light_figures(mix: &SpectralIrradiance, zone: &str, warnings: &mut Vec<String
             return fig;
         }
     };
-    match lampwright_color::cri::cri_with_cct(&spd, cct) {
+    let quality = sums.quality(cct);
+    match quality.cri {
         Ok(c) => {
             if !c.meaningful {
                 warnings.push(format!(
@@ -279,22 +309,7 @@ fn light_figures(mix: &SpectralIrradiance, zone: &str, warnings: &mut Vec<String
         }
         Err(e) => warnings.push(format!("{zone}: no CRI: {e}")),
     }
-    tm30_figures(&spd, cct, zone, &mut fig, warnings);
-    match lampwright_color::ssi::ssi_at_cct(&spd, cct.cct_k) {
-        Ok(s) => fig.ssi = Some(s.value),
-        Err(e) => warnings.push(format!("{zone}: no SSI: {e}")),
-    }
-    fig
-}
-
-fn tm30_figures(
-    spd: &RelativeSpd,
-    cct: CctDuv,
-    zone: &str,
-    fig: &mut LightFigures,
-    warnings: &mut Vec<String>,
-) {
-    match lampwright_color::tm30::tm30_with_cct(spd, cct) {
+    match quality.tm30 {
         Ok(t) => {
             fig.tm30_rf = Some(t.rf);
             fig.tm30_rg = Some(t.rg);
@@ -308,6 +323,11 @@ fn tm30_figures(
         }
         Err(e) => warnings.push(format!("{zone}: no TM-30 figures: {e}")),
     }
+    match quality.ssi {
+        Ok(s) => fig.ssi = Some(s.value),
+        Err(e) => warnings.push(format!("{zone}: no SSI: {e}")),
+    }
+    fig
 }
 
 /// Summary statistics over the included subjects.
@@ -387,8 +407,20 @@ pub struct Evaluator {
     zones: Vec<ZoneEntry>,
     cameras: Vec<(crate::model::CameraRef, crate::render::CameraQuality)>,
     camera_cache: crate::render::CameraCache,
+    subject_sums: Vec<SubjectSumsEntry>,
+    resolved_subjects: Vec<(crate::model::SubjectRef, Arc<resolve::ResolvedSubject>)>,
+    resolved_camera: Option<(CameraRef, Arc<CameraSensitivities>)>,
+    training_sums: Vec<(SourceKey, CameraRef, Arc<SignalSums>)>,
     hits: u64,
     misses: u64,
+}
+
+/// One source's subject sums for one camera and list of subjects.
+struct SubjectSumsEntry {
+    source: SourceKey,
+    camera: CameraRef,
+    subjects: Vec<crate::model::SubjectRef>,
+    sums: Arc<SignalSums>,
 }
 
 impl std::fmt::Debug for Evaluator {
@@ -452,6 +484,7 @@ impl Evaluator {
     fn zone_figures(
         &mut self,
         mix: &SpectralIrradiance,
+        sums: Option<&LightSums>,
         zone: &str,
         warnings: &mut Vec<String>,
     ) -> LightFigures {
@@ -467,7 +500,7 @@ impl Evaluator {
         }
         self.misses += 1;
         let mut own = Vec::new();
-        let figures = light_figures(mix, zone, &mut own);
+        let figures = light_figures(mix, sums, zone, &mut own);
         warnings.extend(own.iter().cloned());
         remember(
             &mut self.zones,
@@ -496,6 +529,179 @@ impl Evaluator {
         Ok(q)
     }
 
+    /// A subject resolved (library entry or embedded data on the grid).
+    fn subject(
+        &mut self,
+        plan: &Plan,
+        subject: &crate::model::SubjectRef,
+    ) -> Result<Arc<resolve::ResolvedSubject>> {
+        if let Some((_, r)) = self.resolved_subjects.iter().find(|(k, _)| k == subject) {
+            self.hits += 1;
+            return Ok(Arc::clone(r));
+        }
+        self.misses += 1;
+        let resolved = Arc::new(resolve::subject_reflectance(plan, subject)?);
+        if self.resolved_subjects.len() >= crate::limits::MAX_SUBJECTS {
+            self.resolved_subjects.clear();
+        }
+        self.resolved_subjects
+            .push((subject.clone(), Arc::clone(&resolved)));
+        Ok(resolved)
+    }
+
+    /// The plan's camera resolved.
+    fn camera(&mut self, plan: &Plan) -> Result<Arc<CameraSensitivities>> {
+        if let Some((r, c)) = &self.resolved_camera
+            && *r == plan.camera.camera
+        {
+            self.hits += 1;
+            return Ok(Arc::clone(c));
+        }
+        self.misses += 1;
+        let camera = Arc::new(resolve::camera_sensitivities(plan, &plan.camera.camera)?);
+        self.resolved_camera = Some((plan.camera.camera.clone(), Arc::clone(&camera)));
+        Ok(camera)
+    }
+
+    /// The subjects' camera and eye sums under one source's per-lux light.
+    fn subject_sums(
+        &mut self,
+        plan: &Plan,
+        source: &Source,
+        light: &SourceLight,
+        camera: &CameraSensitivities,
+        subjects: &[Arc<resolve::ResolvedSubject>],
+    ) -> Arc<SignalSums> {
+        let key = SourceKey::of(source);
+        let refs = || plan.subjects.iter().map(|e| &e.subject);
+        if let Some(e) = self.subject_sums.iter().find(|e| {
+            e.source == key
+                && e.camera == plan.camera.camera
+                && e.subjects.len() == plan.subjects.len()
+                && e.subjects.iter().eq(refs())
+        }) {
+            self.hits += 1;
+            return Arc::clone(&e.sums);
+        }
+        self.misses += 1;
+        let sums = Arc::new(SignalSums::of(
+            camera,
+            light.per_lux.values(),
+            Observer::cie1931_2deg(),
+            subjects.iter().map(|s| &s.reflectance),
+        ));
+        remember(
+            &mut self.subject_sums,
+            SubjectSumsEntry {
+                source: key,
+                camera: plan.camera.camera.clone(),
+                subjects: refs().cloned().collect(),
+                sums: Arc::clone(&sums),
+            },
+        );
+        sums
+    }
+
+    /// The training samples' camera and eye sums under one source's per-lux light.
+    fn training_sums(
+        &mut self,
+        plan: &Plan,
+        source: &Source,
+        light: &SourceLight,
+        camera: &CameraSensitivities,
+    ) -> Result<Arc<SignalSums>> {
+        let key = SourceKey::of(source);
+        if let Some((_, _, sums)) = self
+            .training_sums
+            .iter()
+            .find(|(k, c, _)| *k == key && *c == plan.camera.camera)
+        {
+            self.hits += 1;
+            return Ok(Arc::clone(sums));
+        }
+        self.misses += 1;
+        let sums = Arc::new(SignalSums::of(
+            camera,
+            light.per_lux.values(),
+            Observer::cie1931_2deg(),
+            TrainingSet::standard()?.reflectances(),
+        ));
+        remember(
+            &mut self.training_sums,
+            (key, plan.camera.camera.clone(), Arc::clone(&sums)),
+        );
+        Ok(sums)
+    }
+
+    /// The camera set up for the frame from each lit source's subject sums
+    /// (and training sums for a scene profile), mixed per zone.
+    fn camera_stage(
+        &mut self,
+        plan: &Plan,
+        sources: &[SourceLight],
+        lit: &[Vec<(usize, f64)>],
+        zone_spectra: &[SpectralIrradiance],
+        subjects: &[Arc<resolve::ResolvedSubject>],
+    ) -> Result<CameraStage> {
+        let camera_sens = self.camera(plan)?;
+        let quality = self.camera_quality(plan, &camera_sens)?;
+        // Each lit source's subject sums (and training sums for a scene
+        // profile in the main zone), mixed per zone.
+        let mut per_source: Vec<Option<Arc<SignalSums>>> = vec![None; sources.len()];
+        for l in lit {
+            for (i, _) in l {
+                if per_source[*i].is_none() {
+                    per_source[*i] = Some(self.subject_sums(
+                        plan,
+                        &plan.sources[*i],
+                        &sources[*i],
+                        &camera_sens,
+                        subjects,
+                    ));
+                }
+            }
+        }
+        let zone_sums: Vec<Option<SignalSums>> = lit
+            .iter()
+            .map(|l| {
+                let parts: Vec<(f64, &SignalSums)> = l
+                    .iter()
+                    .filter_map(|(i, w)| per_source[*i].as_deref().map(|s| (*w, s)))
+                    .collect();
+                SignalSums::mix(&parts)
+            })
+            .collect();
+        let main_training = if plan.camera.matrix == crate::model::MatrixMode::SceneProfile {
+            let mut parts = Vec::new();
+            for (i, w) in lit.first().map_or(&[][..], Vec::as_slice) {
+                parts.push((
+                    *w,
+                    self.training_sums(plan, &plan.sources[*i], &sources[*i], &camera_sens)?,
+                ));
+            }
+            let refs: Vec<(f64, &SignalSums)> = parts.iter().map(|(w, s)| (*w, &**s)).collect();
+            SignalSums::mix(&refs)
+        } else {
+            None
+        };
+        let zone_inputs: Vec<ZoneLight<'_>> = zone_spectra
+            .iter()
+            .zip(&zone_sums)
+            .map(|(spectrum, sums)| ZoneLight {
+                spectrum,
+                subjects: sums.as_ref(),
+            })
+            .collect();
+        CameraStage::new(
+            plan,
+            &camera_sens,
+            quality,
+            &zone_inputs,
+            main_training.as_ref(),
+            &mut self.camera_cache,
+        )
+    }
+
     /// Evaluate `plan`, reusing cached work; the result equals [`evaluate`]'s.
     pub fn evaluate(&mut self, plan: &Plan) -> Result<Evaluation> {
         self.sync_library(plan);
@@ -521,31 +727,34 @@ impl Evaluator {
             }
         }
         let mixes = zone_mixes(plan, &sources)?;
-        let zone_spectra: Vec<SpectralIrradiance> = mixes
+        let lit: Vec<Vec<(usize, f64)>> = mixes
             .iter()
-            .map(|m| mix_spectrum(&sources, &m.parts))
+            .map(|m| lit_parts(&sources, &m.parts))
             .collect();
+        let zone_spectra: Vec<SpectralIrradiance> =
+            lit.iter().map(|l| mix_spectrum(&sources, l)).collect();
         let zone_lights: Vec<LightFigures> = mixes
             .iter()
+            .zip(&lit)
             .zip(&zone_spectra)
-            .map(|(m, spd)| self.zone_figures(spd, &m.name, &mut warnings))
+            .map(|((m, l), spd)| {
+                // The sums are mixed only when the figures are not cached.
+                let values = spd.values();
+                let cached = self
+                    .zones
+                    .iter()
+                    .any(|e| e.name == m.name && e.spectrum.as_slice() == values.as_slice());
+                let sums = if cached { None } else { mix_sums(&sources, l) };
+                self.zone_figures(spd, sums.as_ref(), &m.name, &mut warnings)
+            })
             .collect();
 
         let subjects = plan
             .subjects
             .iter()
-            .map(|s| resolve::subject_reflectance(plan, &s.subject))
+            .map(|s| self.subject(plan, &s.subject))
             .collect::<Result<Vec<_>>>()?;
-        let camera_sens = resolve::camera_sensitivities(plan, &plan.camera.camera)?;
-        let quality = self.camera_quality(plan, &camera_sens)?;
-        let camera = CameraStage::new(
-            plan,
-            &camera_sens,
-            quality,
-            &zone_spectra,
-            &subjects,
-            &mut self.camera_cache,
-        )?;
+        let camera = self.camera_stage(plan, &sources, &lit, &zone_spectra, &subjects)?;
         let mut zones = Vec::with_capacity(mixes.len());
         let mut metamers = Vec::new();
         let main_lux = zone_lights[0].illuminance_lux;
@@ -616,8 +825,8 @@ fn source_figures(sources: &[SourceLight], parts: &[(usize, f64)]) -> Vec<Source
         .enumerate()
         .map(|(i, s)| {
             let lux = lux_of(i);
-            let own = s.per_lux.scaled(s.level_lux * s.dimmer_flux);
-            let cct = cct_duv_of_spd(&own.to_relative(), CctMethod::Ohno2014).ok();
+            // The CCT of the source's own light, whatever its level above zero.
+            let cct = s.cct.filter(|_| s.level_lux * s.dimmer_flux > 0.0);
             SourceFigures {
                 source_id: s.id,
                 name: s.name.clone(),

@@ -14,17 +14,18 @@ use crate::model::{
     Adaptation, CameraRef, Display, FitMethod, MatrixMode, Plan, WbPreset, WhiteBalanceSetting,
 };
 use crate::resolve::ResolvedSubject;
+use lampwright_camera::ColorCorrection;
 use lampwright_camera::display::DisplaySpace;
 use lampwright_camera::pipeline::{
     CameraPipeline, CameraSettings, SubjectComparison, camera_metamers,
 };
 use lampwright_camera::quality::luther_and_mu;
-use lampwright_camera::raw::{SceneResponse, SubjectSignal, raw_of_light};
+use lampwright_camera::raw::{SignalSums, SubjectSignal};
 use lampwright_camera::white_balance::ResolvedWhiteBalance;
 use lampwright_camera::{CameraSensitivities, TrainingSet, WhiteBalance};
-use lampwright_color::observer::Observer;
+use lampwright_color::rgb::rgb8_clamped_many;
 use lampwright_color::spectrum::SpectralIrradiance;
-use lampwright_color::tristimulus::xyz_sums;
+use std::sync::Arc;
 
 /// Below this (relative) a light counts as dark for the camera.
 const DARK: f64 = 1e-12;
@@ -32,7 +33,9 @@ const DARK: f64 = 1e-12;
 /// The camera set up for the frame.
 pub struct CameraStage {
     /// `None` when the main zone is dark: every subject renders black.
-    pipeline: Option<CameraPipeline>,
+    pipeline: Option<Arc<CameraPipeline>>,
+    /// The CCT the camera infers and the correction it applies, found once.
+    correction: Option<(Option<f64>, ColorCorrection)>,
     /// One white balance for the whole frame.
     white_balance: Option<ResolvedWhiteBalance>,
     /// Per zone, the subjects' signals at that zone's exposure.
@@ -66,35 +69,29 @@ pub struct PipelineEntry {
     camera: CameraRef,
     settings: CameraSettings,
     light: Vec<f64>,
-    pipeline: CameraPipeline,
+    pipeline: Arc<CameraPipeline>,
 }
 
 /// Pipelines kept at most.
 const PIPELINES_KEPT: usize = 8;
 
-/// Zones' subject signals kept at most.
-const SIGNALS_KEPT: usize = 16;
-
-/// A zone's subject signals as the camera and the eye collect them under the
-/// zone's light, before scaling to the main zone's exposure.
-struct SignalEntry {
-    camera: CameraRef,
-    subjects: Vec<crate::model::SubjectRef>,
-    light: Vec<f64>,
-    /// Raw G and Y of the light itself (the scale of the signals); `None`
-    /// when the zone is dark for the camera or the eye.
-    scale: Option<(f64, f64)>,
-    signals: Vec<SubjectSignal>,
-}
-
 /// What the camera stage keeps between evaluations of a plan being edited:
-/// pipelines by camera, settings and main light; each zone's subject signals
-/// by camera, subjects and zone light. A plan whose embedded library changes
-/// needs a new cache (the keys name library entries).
+/// pipelines by camera, settings and main light, and the camera's curves as
+/// shown. A plan whose embedded library changes needs a new cache (the keys
+/// name library entries).
 #[derive(Default)]
 pub struct CameraCache {
     pipelines: Vec<PipelineEntry>,
-    signals: Vec<SignalEntry>,
+    shown_curves: Option<(CameraRef, [Vec<f64>; 3])>,
+}
+
+/// A zone's light as the camera stage needs it.
+pub struct ZoneLight<'a> {
+    /// The mixed spectrum at the subject.
+    pub spectrum: &'a SpectralIrradiance,
+    /// The subjects' camera and eye sums under it (plan order); `None` when
+    /// no source is lit in the zone.
+    pub subjects: Option<&'a SignalSums>,
 }
 
 /// One zone rendered.
@@ -153,178 +150,126 @@ fn peak_normalised(values: &[f64]) -> Vec<f64> {
     }
 }
 
-/// Every subject's signals under a zone's light, scaled to the zone's
-/// exposure relative to the main zone (zeros for a dark zone). Unscaled
-/// signals come from `cache` when the same camera, subjects and light were
-/// integrated before.
-fn zone_signals(
-    plan: &Plan,
-    camera: &CameraSensitivities,
-    zone_light: &SpectralIrradiance,
-    main: (f64, f64),
-    subjects: &[ResolvedSubject],
-    cache: &mut Vec<SignalEntry>,
-) -> Result<Vec<SubjectSignal>> {
-    let light = zone_light.to_relative();
-    let subject_refs = || plan.subjects.iter().map(|e| &e.subject);
-    let found = cache.iter().position(|e| {
-        e.camera == plan.camera.camera
-            && e.light.as_slice() == light.values().as_slice()
-            && e.subjects.len() == plan.subjects.len()
-            && e.subjects.iter().eq(subject_refs())
-    });
-    let index = if let Some(i) = found {
-        i
-    } else {
-        let raw_g = raw_of_light(camera, &light)[1];
-        let y = xyz_sums(light.values(), Observer::cie1931_2deg()).y;
-        let lit = raw_g > DARK && y > DARK && light.check_colorimetric("zone").is_ok();
-        let signals = if lit {
-            SceneResponse::new(camera, &light, Observer::cie1931_2deg())?
-                .subjects_of(subjects.iter().map(|s| &s.reflectance))
-        } else {
-            Vec::new()
-        };
-        if cache.len() >= SIGNALS_KEPT {
-            cache.remove(0);
-        }
-        cache.push(SignalEntry {
-            camera: plan.camera.camera.clone(),
-            subjects: subject_refs().cloned().collect(),
-            light: light.values().to_vec(),
-            scale: lit.then_some((raw_g, y)),
-            signals,
-        });
-        cache.len() - 1
-    };
-    let entry = &cache[index];
-    Ok(match entry.scale {
-        Some((raw_g, y)) => {
-            let (k_raw, k_y) = (raw_g / main.0, y / main.1);
-            entry
-                .signals
-                .iter()
-                .map(|sig| SubjectSignal {
-                    raw_rgb: sig.raw_rgb.map(|v| v * k_raw),
-                    xyz: sig.xyz.scaled(k_y),
-                })
-                .collect()
-        }
-        None => subjects
-            .iter()
-            .map(|_| SubjectSignal {
-                raw_rgb: [0.0; 3],
-                xyz: lampwright_color::Xyz::default(),
-            })
-            .collect(),
-    })
+/// Raw G and Y of a zone's light when the camera and the eye both see it
+/// (lit, colorimetric); `None` for a dark zone.
+fn zone_scale(zone: &ZoneLight<'_>, what: &str) -> Option<(f64, f64)> {
+    let (raw_g, y) = zone.subjects?.scale();
+    (raw_g > DARK && y > DARK && zone.spectrum.check_colorimetric(what).is_ok())
+        .then_some((raw_g, y))
 }
 
 impl CameraStage {
     /// Set the camera up for the frame: pipeline (matrix, eye adaptation)
-    /// under the main zone's light (`zone_lights[0]`), and one white balance
-    /// for the whole frame. Automatic white balance (grey world, brightest
+    /// under the main zone's light (`zones[0]`), and one white balance for
+    /// the whole frame. Automatic white balance (grey world, brightest
     /// neutral) is estimated from every subject in every zone, each at its
     /// zone's exposure, as a camera meters the whole frame; a grey card is
     /// read where the key light is, in the main zone.
     ///
     /// `camera` and `quality` are the plan's camera and its quality figures;
-    /// `cache` keeps pipelines and signals between evaluations (pass a new
-    /// one to set up afresh).
+    /// `main_training` the training samples' sums under the main light
+    /// (needed for a scene profile); `cache` keeps pipelines between
+    /// evaluations (pass a new one to set up afresh).
     pub fn new(
         plan: &Plan,
         camera: &CameraSensitivities,
         quality: CameraQuality,
-        zone_lights: &[SpectralIrradiance],
-        subjects: &[ResolvedSubject],
+        zones: &[ZoneLight<'_>],
+        main_training: Option<&SignalSums>,
         cache: &mut CameraCache,
     ) -> Result<CameraStage> {
-        let pipelines = &mut cache.pipelines;
         let settings = camera_settings(plan);
-        let channels = camera.channels();
+        let shown = match &cache.shown_curves {
+            Some((r, curves)) if *r == plan.camera.camera => curves.clone(),
+            _ => {
+                let channels = camera.channels();
+                let curves = [0, 1, 2].map(|i| peak_normalised(channels[i].values()));
+                cache.shown_curves = Some((plan.camera.camera.clone(), curves.clone()));
+                curves
+            }
+        };
         let mut figures = CameraFigures {
             name: camera.name.clone(),
-            sensitivities: [0, 1, 2].map(|i| peak_normalised(channels[i].values())),
+            sensitivities: shown,
             luther_residual: quality.luther_residual,
             mu_factor: quality.mu_factor,
             wb_gains: [1.0; 3],
             wb_cct_k: None,
             matrix: [[0.0; 3]; 3],
         };
-        let Some(main_light) = zone_lights.first() else {
-            return Ok(CameraStage {
-                pipeline: None,
-                white_balance: None,
-                zone_signals: Vec::new(),
-                figures,
-            });
+        let dark = |figures| CameraStage {
+            pipeline: None,
+            correction: None,
+            white_balance: None,
+            zone_signals: Vec::new(),
+            figures,
         };
-        let light = main_light.to_relative();
-        let main_raw_g = raw_of_light(camera, &light)[1];
-        let main_y = xyz_sums(light.values(), Observer::cie1931_2deg()).y;
-        if !(main_raw_g > DARK
-            && main_y > DARK
-            && light.check_colorimetric("the main zone").is_ok())
-        {
-            return Ok(CameraStage {
-                pipeline: None,
-                white_balance: None,
-                zone_signals: vec![Vec::new(); zone_lights.len()],
-                figures,
-            });
-        }
+        let Some(main_zone) = zones.first() else {
+            return Ok(dark(figures));
+        };
+        let (Some(main_scale), Some(main_sums)) =
+            (zone_scale(main_zone, "the main zone"), main_zone.subjects)
+        else {
+            return Ok(dark(figures));
+        };
+        let pipelines = &mut cache.pipelines;
+        let light = main_zone.spectrum.values();
         let cached = pipelines.iter().position(|e| {
             e.camera == plan.camera.camera
                 && e.settings == settings
-                && e.light.as_slice() == light.values().as_slice()
+                && e.light.as_slice() == light.as_slice()
         });
         let pipeline = if let Some(i) = cached {
-            pipelines[i].pipeline.clone()
+            Arc::clone(&pipelines[i].pipeline)
         } else {
-            let p = CameraPipeline::new(camera, &settings, &light, TrainingSet::standard()?)?;
+            let training = main_training.map(|t| t.signals(main_scale));
+            let p = Arc::new(CameraPipeline::from_signals(
+                camera,
+                &settings,
+                main_sums.white_signal(),
+                training.as_deref(),
+                TrainingSet::standard()?,
+            )?);
             if pipelines.len() >= PIPELINES_KEPT {
                 pipelines.remove(0);
             }
             pipelines.push(PipelineEntry {
                 camera: plan.camera.camera.clone(),
                 settings,
-                light: light.values().to_vec(),
-                pipeline: p.clone(),
+                light: light.to_vec(),
+                pipeline: Arc::clone(&p),
             });
             p
         };
-        let zone_signals = zone_lights
+        let n = plan.subjects.len();
+        let zone_signals: Vec<Vec<SubjectSignal>> = zones
             .iter()
-            .map(|z| {
-                zone_signals(
-                    plan,
-                    camera,
-                    z,
-                    (main_raw_g, main_y),
-                    subjects,
-                    &mut cache.signals,
-                )
+            .map(|z| match (zone_scale(z, "zone"), z.subjects) {
+                (Some(_), Some(sums)) => sums.signals(main_scale),
+                _ => vec![SubjectSignal::default(); n],
             })
-            .collect::<Result<Vec<_>>>()?;
+            .collect();
         let white_balance = if matches!(settings.white_balance, WhiteBalance::GreyCard { .. }) {
             pipeline.white_balance_for(&zone_signals[0])?
         } else {
             let frame: Vec<SubjectSignal> = zone_signals.iter().flatten().copied().collect();
             pipeline.white_balance_for(&frame)?
         };
-        let main = pipeline.compare_signals_balanced(&zone_signals[0], white_balance)?;
+        let found = pipeline.correction_for(white_balance)?;
+        let (estimated_cct_k, correction) = found;
         let g = white_balance.gains;
         figures.wb_gains = [g.red, g.green, g.blue];
         figures.wb_cct_k = match settings.white_balance {
             WhiteBalance::Kelvin { cct_k } => Some(cct_k),
-            _ => main.estimated_cct_k,
+            _ => estimated_cct_k,
         };
-        let rows = main.correction.rows();
+        let rows = correction.rows();
         if rows.len() == 3 && rows.iter().all(|r| r.len() == 3) {
             figures.matrix = [0, 1, 2].map(|i| [rows[i][0], rows[i][1], rows[i][2]]);
         }
         Ok(CameraStage {
             pipeline: Some(pipeline),
+            correction: Some(found),
             white_balance: Some(white_balance),
             zone_signals,
             figures,
@@ -343,13 +288,14 @@ impl CameraStage {
         &self,
         plan: &Plan,
         zone: usize,
-        subjects: &[ResolvedSubject],
+        subjects: &[Arc<ResolvedSubject>],
         metamers: bool,
         warnings: &mut Vec<String>,
     ) -> Result<Rendered> {
-        let (Some(pipeline), Some(white_balance), Some(signals)) = (
+        let (Some(pipeline), Some(white_balance), Some(correction), Some(signals)) = (
             &self.pipeline,
             self.white_balance,
+            self.correction,
             self.zone_signals.get(zone),
         ) else {
             return Ok(Rendered {
@@ -361,14 +307,32 @@ impl CameraStage {
                 metamers: Vec::new(),
             });
         };
-        let comparison = pipeline.compare_signals_balanced(signals, white_balance)?;
+        let comparison = pipeline.compare_signals_corrected(signals, white_balance, correction)?;
         let as_lit = plan.viewing.adaptation == Adaptation::AsLit;
+        // 8-bit swatches of eye and camera for every subject at once.
+        let linear: Vec<[f64; 3]> = comparison
+            .subjects
+            .iter()
+            .flat_map(|c| {
+                let eye = if as_lit {
+                    c.eye_display_as_lit
+                } else {
+                    c.eye_display
+                };
+                [
+                    eye.linear_rgb_unclamped,
+                    c.camera_display.linear_rgb_unclamped,
+                ]
+            })
+            .collect();
+        let rgb8 = rgb8_clamped_many(&linear);
         let results: Vec<SubjectResult> = comparison
             .subjects
             .iter()
             .zip(subjects)
+            .zip(rgb8.chunks_exact(2))
             .enumerate()
-            .map(|(i, (c, s))| result(plan, i, s, c, as_lit))
+            .map(|(i, ((c, s), swatch))| result(plan, i, s, c, as_lit, [swatch[0], swatch[1]]))
             .collect();
         if results.iter().any(|r| !r.de2000.is_finite()) {
             warnings.push("a subject's colour difference could not be computed".into());
@@ -411,6 +375,7 @@ fn result(
     s: &ResolvedSubject,
     c: &SubjectComparison,
     as_lit: bool,
+    [eye_rgb8, camera_rgb8]: [[u8; 3]; 2],
 ) -> SubjectResult {
     let (eye_lab, eye_display) = if as_lit {
         (c.eye_lab_as_lit, c.eye_display_as_lit)
@@ -429,8 +394,8 @@ fn result(
         included: plan.subjects.get(index).is_some_and(|e| e.included),
         eye_lab: finite3([eye_lab.l, eye_lab.a, eye_lab.b]),
         camera_lab: finite3([c.camera_lab.l, c.camera_lab.a, c.camera_lab.b]),
-        eye_rgb8: eye_display.to_rgb8_clamped(),
-        camera_rgb8: c.camera_display.to_rgb8_clamped(),
+        eye_rgb8,
+        camera_rgb8,
         eye_in_gamut: eye_display.in_gamut,
         camera_in_gamut: c.camera_display.in_gamut,
         de2000: if de.is_finite() { de } else { 0.0 },
