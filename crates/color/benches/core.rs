@@ -81,6 +81,15 @@ fn bench_cam02(c: &mut Criterion) {
     c.bench_function("Cam02Ucs::jab (one sample)", |b| {
         b.iter(|| ucs.jab(black_box(Xyz::new(19.01, 20.0, 21.78))));
     });
+    let many: Vec<Xyz> = (0..99)
+        .map(|i| {
+            let t = f64::from(i) / 98.0;
+            Xyz::new(10.0 + 60.0 * t, 12.0 + 50.0 * (1.0 - t), 8.0 + 70.0 * t * t)
+        })
+        .collect();
+    c.bench_function("Cam02Ucs::jab_many (99 samples, as TM-30)", |b| {
+        b.iter(|| ucs.jab_many(black_box(&many)));
+    });
     c.bench_function("Cam02::appearance (all correlates)", |b| {
         b.iter(|| {
             ucs.cam02()

@@ -167,7 +167,12 @@ pub fn rgb8_clamped_many(linear: &[[f64; 3]]) -> Vec<[u8; 3]> {
         .flatten()
         .map(|x| if x.is_nan() { 0.0 } else { x.clamp(0.0, 1.0) })
         .collect();
-    let mut p = v.clone();
+    // Values on the linear segment take no power: 1 stands in for them so
+    // the vectorised power meets no zeros (which would need fixing up).
+    let mut p: Vec<f64> = v
+        .iter()
+        .map(|x| if *x <= 0.0031308 { 1.0 } else { *x })
+        .collect();
     crate::batch_math::pow_nonnegative_in_place(&mut p, 1.0 / 2.4);
     for (x, p) in v.iter_mut().zip(&p) {
         *x = if *x <= 0.0031308 {

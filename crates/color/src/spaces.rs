@@ -274,16 +274,12 @@ impl Lab {
                 ]
             })
             .collect();
-        // ln t / 3 then exp, as lab_f does, over the values above ε.
+        // The cube root as exp((1/3)·ln t), over the values above ε.
         let mut f: Vec<f64> = t
             .iter()
             .map(|t| if *t > LAB_EPSILON { *t } else { 1.0 })
             .collect();
-        crate::batch_math::ln_in_place(&mut f);
-        for v in &mut f {
-            *v /= 3.0;
-        }
-        crate::batch_math::exp_in_place(&mut f);
+        crate::batch_math::pow_nonnegative_in_place(&mut f, 1.0 / 3.0);
         for (f, t) in f.iter_mut().zip(&t) {
             if *t <= LAB_EPSILON || t.is_nan() {
                 *f = lab_f(*t);
