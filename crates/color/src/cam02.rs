@@ -435,40 +435,37 @@ impl Cam02Ucs {
     pub fn jab_many(&self, xyz: &[Xyz]) -> Vec<[f64; 3]> {
         let cam = &self.cam;
         let n = xyz.len();
-        // Eqs. 2.11–2.15: |F_L·R/100|^0.42 for the three channels of every colour.
-        let mut linear = Vec::with_capacity(3 * n);
-        for x in xyz {
-            let v = [x.x, x.y, x.z];
-            for row in &cam.to_hpe {
-                linear.push(row[0] * v[0] + row[1] * v[1] + row[2] * v[2]);
+        // Eqs. 2.11–2.15: |F_L·R/100|^0.42 for the three channels of every
+        // colour; channel by channel (R of all colours, then G, then B) so
+        // the stages below run over contiguous values.
+        let mut linear = vec![0.0; 3 * n];
+        for (k, row) in cam.to_hpe.iter().enumerate() {
+            for (o, x) in linear[k * n..(k + 1) * n].iter_mut().zip(xyz) {
+                *o = row[0] * x.x + row[1] * x.y + row[2] * x.z;
             }
         }
         let mut p: Vec<f64> = linear.iter().map(|x| cam.fl_100 * x.abs()).collect();
         pow_positive_many(&mut p, 0.42);
-        // Eqs. 2.16–2.20 and the eccentricity term of 2.23.
-        let mut ratio = vec![0.0; n];
-        let mut t = vec![0.0; n];
-        let mut ab = vec![[0.0; 3]; n];
-        for i in 0..n {
-            let c = [0, 1, 2].map(|k| {
-                let q = p[3 * i + k];
-                (400.0 * q / (27.13 + q)).copysign(linear[3 * i + k]) + 0.1
-            });
-            let [ra, ga, ba] = c;
-            let a = ra - 12.0 * ga / 11.0 + ba / 11.0;
-            let b = (ra + ga - 2.0 * ba) / 9.0;
-            let r = (a * a + b * b).sqrt();
-            let achromatic = ((2.0 * ra + ga + ba / 20.0 - 0.305) * cam.n_bb).max(0.0);
-            ratio[i] = achromatic / cam.a_w;
-            let denom = ra + ga + 21.0 / 20.0 * ba;
-            t[i] = if r > 0.0 && denom > 0.0 {
-                let cos_h2 = (a * COS_2 - b * SIN_2) / r;
-                cam.t_factor * 0.25 * (cos_h2 + 3.8) * r / denom
-            } else {
-                0.0
-            };
-            ab[i] = [a, b, r];
-        }
+        // Eqs. 2.16–2.20 and the eccentricity term of 2.23, vectorised.
+        let mut stage = OpponentStage {
+            cam,
+            linear: &linear,
+            p: &p,
+            ratio: vec![0.0; n],
+            t: vec![0.0; n],
+            a: vec![0.0; n],
+            b: vec![0.0; n],
+            r: vec![0.0; n],
+        };
+        stage = pulp::Arch::new().dispatch(stage);
+        let OpponentStage {
+            mut ratio,
+            mut t,
+            a,
+            b,
+            r,
+            ..
+        } = stage;
         pow_positive_many(&mut ratio, cam.cz / 2.0);
         pow_positive_many(&mut t, 0.9);
         // Eq. 2.24 and the UCS compression of M (ln(1 + c₂·M)).
@@ -478,20 +475,67 @@ impl Cam02Ucs {
             .map(|(t, sqrt_j)| 1.0 + UCS_C2 * (t * sqrt_j * cam.chroma_factor * cam.fl_quarter))
             .collect();
         ln_in_place(&mut m_arg);
-        ratio
-            .iter()
-            .zip(&m_arg)
-            .zip(&ab)
-            .map(|((sqrt_j, ln_m), [a, b, r])| {
+        (0..n)
+            .map(|i| {
+                let sqrt_j = ratio[i];
                 let jp = j_prime(100.0 * sqrt_j * sqrt_j);
-                if *r > 0.0 {
-                    let k = ln_m / UCS_C2 / r;
-                    [jp, k * a, k * b]
+                if r[i] > 0.0 {
+                    let k = m_arg[i] / UCS_C2 / r[i];
+                    [jp, k * a[i], k * b[i]]
                 } else {
                     [jp, 0.0, 0.0]
                 }
             })
             .collect()
+    }
+}
+
+/// Eqs. 2.16–2.20 and the eccentricity term of 2.23 for many colours, from
+/// the cone responses (`linear`, channel-major) and their compressed powers
+/// (`p`): the achromatic ratio `A/A_w`, the factor t, and a, b, √(a² + b²).
+/// A pulp kernel, so the loop (its divisions and square roots included) runs
+/// on the widest vectors the processor has; the arithmetic is the one-colour
+/// path's, operation for operation.
+struct OpponentStage<'a> {
+    cam: &'a Cam02,
+    linear: &'a [f64],
+    p: &'a [f64],
+    ratio: Vec<f64>,
+    t: Vec<f64>,
+    a: Vec<f64>,
+    b: Vec<f64>,
+    r: Vec<f64>,
+}
+
+impl<'a> pulp::WithSimd for OpponentStage<'a> {
+    type Output = OpponentStage<'a>;
+    #[allow(clippy::inline_always)] // must inline into the dispatched function
+    #[inline(always)]
+    fn with_simd<S: pulp::Simd>(mut self, _simd: S) -> OpponentStage<'a> {
+        let n = self.ratio.len();
+        let cam = self.cam;
+        let (p, linear) = (self.p, self.linear);
+        let (pr, pg, pb) = (&p[..n], &p[n..2 * n], &p[2 * n..3 * n]);
+        let (lr, lg, lb) = (&linear[..n], &linear[n..2 * n], &linear[2 * n..3 * n]);
+        let compress = |q: f64, sign: f64| (400.0 * q / (27.13 + q)).copysign(sign) + 0.1;
+        for i in 0..n {
+            let ra = compress(pr[i], lr[i]);
+            let ga = compress(pg[i], lg[i]);
+            let ba = compress(pb[i], lb[i]);
+            let a = ra - 12.0 * ga / 11.0 + ba / 11.0;
+            let b = (ra + ga - 2.0 * ba) / 9.0;
+            let r = (a * a + b * b).sqrt();
+            let achromatic = ((2.0 * ra + ga + ba / 20.0 - 0.305) * cam.n_bb).max(0.0);
+            self.ratio[i] = achromatic / cam.a_w;
+            let denom = ra + ga + 21.0 / 20.0 * ba;
+            let cos_h2 = (a * COS_2 - b * SIN_2) / r;
+            let t = cam.t_factor * 0.25 * (cos_h2 + 3.8) * r / denom;
+            self.t[i] = if r > 0.0 && denom > 0.0 { t } else { 0.0 };
+            self.a[i] = a;
+            self.b[i] = b;
+            self.r[i] = r;
+        }
+        self
     }
 }
 
