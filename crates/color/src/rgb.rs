@@ -157,32 +157,52 @@ pub fn srgb_decode(encoded: f64) -> f64 {
     l.copysign(encoded)
 }
 
-/// 8-bit swatch values of many light-linear triples at once, each as
+/// 8-bit code of one clamped linear value, as [`LinearRgb::to_rgb8_clamped`].
+fn code8(linear: f64) -> u8 {
+    to_u8(srgb_encode(if linear.is_nan() {
+        0.0
+    } else {
+        linear.clamp(0.0, 1.0)
+    }))
+}
+
+/// For code k = 1 … 255, the smallest linear value whose 8-bit code is at
+/// least k (bisection over the bit patterns of positive doubles, whose order
+/// is their numeric order). The code is monotone in the value, so a value's
+/// code is the number of thresholds at or below it — exactly what
+/// [`code8`] gives, without a power per value.
+static CODE8_THRESHOLDS: LazyLock<Vec<f64>> = LazyLock::new(|| {
+    (1..=255u16)
+        .map(|k| {
+            let (mut lo, mut hi) = (0.0f64.to_bits(), 1.0f64.to_bits());
+            while hi - lo > 1 {
+                let mid = lo + (hi - lo) / 2;
+                if u16::from(code8(f64::from_bits(mid))) >= k {
+                    hi = mid;
+                } else {
+                    lo = mid;
+                }
+            }
+            f64::from_bits(hi)
+        })
+        .collect()
+});
+
+/// 8-bit swatch values of many light-linear triples at once, each exactly as
 /// [`LinearRgb::to_rgb8_clamped`] gives it (clamped to [0, 1] in linear
-/// light, NaN as 0, sRGB-encoded, rounded), with the powers vectorised.
+/// light, NaN as 0, sRGB-encoded, rounded), by a search in the 255 code
+/// thresholds instead of a power per value.
 #[must_use]
 pub fn rgb8_clamped_many(linear: &[[f64; 3]]) -> Vec<[u8; 3]> {
-    let mut v: Vec<f64> = linear
+    let thresholds = &*CODE8_THRESHOLDS;
+    let code = |v: f64| {
+        let v = if v.is_nan() { 0.0 } else { v.clamp(0.0, 1.0) };
+        // At most 255 thresholds: the count always fits in a byte.
+        u8::try_from(thresholds.partition_point(|t| *t <= v)).unwrap_or(u8::MAX)
+    };
+    linear
         .iter()
-        .flatten()
-        .map(|x| if x.is_nan() { 0.0 } else { x.clamp(0.0, 1.0) })
-        .collect();
-    // Values on the linear segment take no power: 1 stands in for them so
-    // the vectorised power meets no zeros (which would need fixing up).
-    let mut p: Vec<f64> = v
-        .iter()
-        .map(|x| if *x <= 0.0031308 { 1.0 } else { *x })
-        .collect();
-    crate::batch_math::pow_nonnegative_in_place(&mut p, 1.0 / 2.4);
-    for (x, p) in v.iter_mut().zip(&p) {
-        *x = if *x <= 0.0031308 {
-            12.92 * *x
-        } else {
-            1.055 * p - 0.055
-        };
-    }
-    v.chunks_exact(3)
-        .map(|c| [to_u8(c[0]), to_u8(c[1]), to_u8(c[2])])
+        .map(|[r, g, b]| [code(*r), code(*g), code(*b)])
         .collect()
 }
 
@@ -335,6 +355,11 @@ mod tests {
             .collect();
         triples.push([f64::NAN, f64::INFINITY, f64::NEG_INFINITY]);
         triples.push([0.0031308, 0.0031309, 1.0]);
+        // Every code boundary and the double just below it.
+        for t in CODE8_THRESHOLDS.iter() {
+            let below = f64::from_bits(t.to_bits() - 1);
+            triples.push([*t, below, *t * 0.5]);
+        }
         let many = rgb8_clamped_many(&triples);
         for (t, m) in triples.iter().zip(&many) {
             let one = LinearRgb::<Srgb>::new(t[0], t[1], t[2]).to_rgb8_clamped();
