@@ -4,9 +4,11 @@
 //! works in four steps:
 //! 1. each source becomes an absolute spectral irradiance at the subject
 //!    (lamp × dimmer × gels, scaled so that the unfiltered lamp gives the
-//!    source's level in lux);
+//!    source's level in lux), with the weighted sums its light figures and
+//!    the camera need (linear in the light, so taken once per source);
 //! 2. each zone mixes the sources that reach it (one implicit zone when the
-//!    plan has none) and gets its light figures (lux, EV, CCT, Duv, CRI, TM-30, SSI);
+//!    plan has none), spectra and sums alike, and gets its light figures
+//!    (lux, EV, CCT, Duv, CRI, TM-30, SSI) from the mixed sums;
 //! 3. the camera gets one white balance and one matrix for the whole frame,
 //!    as a real camera: the matrix from the main zone's light, automatic
 //!    white balance metered over the subjects of every zone;
@@ -394,9 +396,13 @@ fn remember<T>(cache: &mut Vec<T>, entry: T) {
 }
 
 /// Evaluates a plan that is being edited, reusing the work an edit did not
-/// touch: each source's filtered light (keyed by lamp, dimmer and gels), each
-/// zone's light figures (keyed by its exact mixed spectrum), the camera's
-/// quality figures and its set-up under an unchanged main light. Every
+/// touch: each source's filtered light and its sums for the light figures
+/// (keyed by lamp, dimmer and gels), each source's subject and training
+/// sums for the camera (keyed also by camera and subjects), each zone's
+/// light figures (keyed by its exact mixed spectrum), the resolved subjects
+/// and camera, the camera's quality figures and its set-up under an
+/// unchanged main light. A level change therefore redoes only the
+/// non-linear steps of the zones it touches and the camera. Every
 /// result equals [`evaluate`]'s bit for bit: a cache only ever returns what
 /// the same computation gave before, and the plan's embedded library is part
 /// of every key (a change to it clears the caches).

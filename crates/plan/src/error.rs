@@ -166,12 +166,14 @@ pub enum PlanError {
         message: String,
     },
     /// A colour computation failed, with the part of the plan it was for.
-    #[error("{}: {}", one_line(context), one_line(&source.to_string()))]
+    /// The colour error is part of the message, not a separate cause, so a
+    /// report of the whole chain says it once.
+    #[error("{}: {}", one_line(context), one_line(&error.to_string()))]
     ColorIn {
         /// Which part of the plan, e.g. "subject 'Tomato'".
         context: String,
         /// The colour error.
-        source: ColorError,
+        error: ColorError,
     },
     /// A colour computation failed.
     #[error("{}", one_line(&.0.to_string()))]
@@ -204,7 +206,7 @@ impl PlanError {
     pub fn color_in(context: impl Into<String>, source: ColorError) -> PlanError {
         PlanError::ColorIn {
             context: context.into(),
-            source,
+            error: source,
         }
     }
 
@@ -221,6 +223,25 @@ impl PlanError {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn a_colour_error_is_said_once() {
+        let e = PlanError::color_in(
+            "subject 'Tomato'",
+            ColorError::NotColorimetric {
+                what: "reflectance".into(),
+                reason: "it is zero at every wavelength".into(),
+            },
+        );
+        let text = e.to_string();
+        assert_eq!(
+            text.matches("zero at every wavelength").count(),
+            1,
+            "{text}"
+        );
+        // No separate cause: printing the whole chain repeats nothing.
+        assert!(std::error::Error::source(&e).is_none());
+    }
 
     #[test]
     fn messages_name_place_and_problem() {

@@ -212,12 +212,12 @@ fn check_sources(plan: &Plan, out: &mut Issues) {
 fn with_who(who: &str, e: &PlanError) -> String {
     match e {
         PlanError::UnknownId { kind, id, .. } => format!("{who}: unknown {kind} '{id}'"),
-        PlanError::ColorIn { context, source } => {
+        PlanError::ColorIn { context, error } => {
             let rest = context.split_once(": ").map_or("", |(_, r)| r);
             if rest.is_empty() {
-                format!("{who}: {source}")
+                format!("{who}: {error}")
             } else {
-                format!("{who}: {rest}: {source}")
+                format!("{who}: {rest}: {error}")
             }
         }
         other => format!("{who}: {other}"),
