@@ -12,11 +12,12 @@ pub type Result<T, E = ColorError> = std::result::Result<T, E>;
 #[derive(Debug, Clone, PartialEq, Error)]
 pub enum ColorError {
     /// A spectral table could not be read.
-    #[error("{source_name}: line {line}: {message}")]
+    #[error("{source_name}: {}{message}", at_line(*line))]
     Import {
         /// File name or other label of the input.
         source_name: String,
-        /// 1-based line number (0 when the problem is the whole file).
+        /// 1-based line number (0 when the problem is the whole file, and
+        /// then the message names no line).
         line: usize,
         /// What is wrong, in one line.
         message: String,
@@ -45,4 +46,13 @@ pub enum ColorError {
     /// A numerical method did not converge or met a singular system.
     #[error("numerical failure: {0}")]
     Numerical(String),
+}
+
+/// `line N: ` for a line of the input, nothing for the whole file (line 0).
+fn at_line(line: usize) -> String {
+    if line == 0 {
+        String::new()
+    } else {
+        format!("line {line}: ")
+    }
 }

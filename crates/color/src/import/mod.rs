@@ -363,7 +363,7 @@ mod tests {
         .unwrap_err();
         assert_eq!(err.to_string(), "lamp.csv: line 4: 'n/a' is not a number");
         let err = import_bytes("lamp.csv", b"", SpectrumKind::Lamp).unwrap_err();
-        assert_eq!(err.to_string(), "lamp.csv: line 0: file is empty");
+        assert_eq!(err.to_string(), "lamp.csv: file is empty");
         let err = import_bytes("a\nb.csv", b"", SpectrumKind::Lamp).unwrap_err();
         assert!(!err.to_string().contains('\n'));
     }
