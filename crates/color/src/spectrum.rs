@@ -269,6 +269,23 @@ curve_type!(
     Sensitivity
 );
 
+/// `Σ wᵢ · curveᵢ`, covering where every part is measured (full coverage
+/// and all zero for no parts).
+fn weighted_sum_of<'a>(parts: impl Iterator<Item = (f64, &'a Curve)>) -> Curve {
+    let mut values = Box::new([0.0; GRID_LEN]);
+    let mut coverage: Option<Coverage> = None;
+    for (w, c) in parts {
+        for (o, v) in values.iter_mut().zip(c.values.iter()) {
+            *o += w * v;
+        }
+        coverage = Some(coverage.map_or(c.coverage, |k| k.intersect(&c.coverage)));
+    }
+    Curve {
+        values,
+        coverage: coverage.unwrap_or(Coverage::FULL),
+    }
+}
+
 impl RelativeSpd {
     /// Weighted sum of lights, `Σ wᵢ·Sᵢ` (mixing sources at levels `wᵢ`).
     /// An empty list gives a dark spectrum.
@@ -276,18 +293,7 @@ impl RelativeSpd {
     pub fn weighted_sum<'a>(
         parts: impl IntoIterator<Item = (f64, &'a RelativeSpd)>,
     ) -> RelativeSpd {
-        let mut values = Box::new([0.0; GRID_LEN]);
-        let mut coverage: Option<Coverage> = None;
-        for (w, spd) in parts {
-            for (o, v) in values.iter_mut().zip(spd.values().iter()) {
-                *o += w * v;
-            }
-            coverage = Some(coverage.map_or(spd.coverage(), |c| c.intersect(&spd.coverage())));
-        }
-        RelativeSpd(Curve {
-            values,
-            coverage: coverage.unwrap_or(Coverage::FULL),
-        })
+        RelativeSpd(weighted_sum_of(parts.into_iter().map(|(w, s)| (w, &s.0))))
     }
 
     /// This relative spectrum scaled to an absolute spectral irradiance.
@@ -303,18 +309,7 @@ impl SpectralIrradiance {
     pub fn weighted_sum<'a>(
         parts: impl IntoIterator<Item = (f64, &'a SpectralIrradiance)>,
     ) -> SpectralIrradiance {
-        let mut values = Box::new([0.0; GRID_LEN]);
-        let mut coverage: Option<Coverage> = None;
-        for (w, e) in parts {
-            for (o, v) in values.iter_mut().zip(e.values().iter()) {
-                *o += w * v;
-            }
-            coverage = Some(coverage.map_or(e.coverage(), |c| c.intersect(&e.coverage())));
-        }
-        SpectralIrradiance(Curve {
-            values,
-            coverage: coverage.unwrap_or(Coverage::FULL),
-        })
+        SpectralIrradiance(weighted_sum_of(parts.into_iter().map(|(w, e)| (w, &e.0))))
     }
 
     /// Drop the absolute scale.

@@ -28,31 +28,24 @@ fn bench(c: &mut Criterion) {
         .iter()
         .position(|s| s.role == SourceRole::Key)
         .unwrap_or(0);
-    let base = changed.sources[key].level_lux;
-    c.bench_function("evaluator: café demo after one key level change", |b| {
-        let mut k = 0u32;
-        b.iter(|| {
-            k = k.wrapping_add(1);
-            changed.sources[key].level_lux = base * (1.0 + f64::from(k % 64) / 64.0);
-            engine.evaluate(black_box(&changed)).expect("evaluates")
-        });
-    });
+    level_sweep(
+        c,
+        "evaluator: café demo after one key level change",
+        &mut engine,
+        &mut changed,
+        key,
+    );
     let background = changed
         .sources
         .iter()
         .position(|s| s.role == SourceRole::Background)
         .unwrap_or(0);
-    let base = changed.sources[background].level_lux;
-    c.bench_function(
+    level_sweep(
+        c,
         "evaluator: café demo after one background level change",
-        |b| {
-            let mut k = 0u32;
-            b.iter(|| {
-                k = k.wrapping_add(1);
-                changed.sources[background].level_lux = base * (1.0 + f64::from(k % 64) / 64.0);
-                engine.evaluate(black_box(&changed)).expect("evaluates")
-            });
-        },
+        &mut engine,
+        &mut changed,
+        background,
     );
     // The same with a scene profile: the camera's matrix is fitted under the
     // main zone's light, so a key level change refits it.
@@ -64,19 +57,12 @@ fn bench(c: &mut Criterion) {
     });
     let mut engine_profiled = Evaluator::new();
     engine_profiled.evaluate(&profiled).expect("evaluates");
-    let base = profiled.sources[key].level_lux;
-    c.bench_function(
+    level_sweep(
+        c,
         "evaluator: café demo, scene profile, after one key level change",
-        |b| {
-            let mut k = 0u32;
-            b.iter(|| {
-                k = k.wrapping_add(1);
-                profiled.sources[key].level_lux = base * (1.0 + f64::from(k % 64) / 64.0);
-                engine_profiled
-                    .evaluate(black_box(&profiled))
-                    .expect("evaluates")
-            });
-        },
+        &mut engine_profiled,
+        &mut profiled,
+        key,
     );
     c.bench_function("evaluator: café demo after a white-balance change", |b| {
         let mut k = 0u32;
@@ -87,6 +73,27 @@ fn bench(c: &mut Criterion) {
             engine.evaluate(black_box(&changed)).expect("evaluates")
         });
     });
+}
+
+/// Time `engine` re-evaluating `plan` after each change of source `index`'s
+/// level (64 levels in turn, so no zone is served whole from a cache).
+fn level_sweep(
+    c: &mut Criterion,
+    name: &str,
+    engine: &mut Evaluator,
+    plan: &mut Plan,
+    index: usize,
+) {
+    let base = plan.sources[index].level_lux;
+    c.bench_function(name, |b| {
+        let mut k = 0u32;
+        b.iter(|| {
+            k = k.wrapping_add(1);
+            plan.sources[index].level_lux = base * (1.0 + f64::from(k % 64) / 64.0);
+            engine.evaluate(black_box(&*plan)).expect("evaluates")
+        });
+    });
+    plan.sources[index].level_lux = base;
 }
 
 criterion_group!(benches, bench);
