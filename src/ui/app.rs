@@ -112,7 +112,8 @@ impl App {
         theme::apply(&cc.egui_ctx);
         let prefs: Prefs = cc
             .storage
-            .and_then(|s| eframe::get_value(s, prefs::STORAGE_KEY))
+            .and_then(|s| eframe::get_value::<Prefs>(s, prefs::STORAGE_KEY))
+            .map(Prefs::bounded)
             .unwrap_or_default();
         let (plan, demo_error) = match upstream::demo_plan() {
             Ok(plan) => (plan, None),

@@ -80,6 +80,24 @@ impl Default for Prefs {
 }
 
 impl Prefs {
+    /// These preferences as loaded from storage, held to the limits the
+    /// window keeps (at most [`RECENT_LIMIT`] recent files and folders, no
+    /// repeats): stored preferences may come from an older build or be edited.
+    #[must_use]
+    pub fn bounded(mut self) -> Prefs {
+        for list in [&mut self.recent_files, &mut self.recent_folders] {
+            let mut seen: Vec<PathBuf> = Vec::new();
+            list.retain(|p| {
+                let first = !seen.contains(p);
+                if first {
+                    seen.push(p.clone());
+                }
+                first && seen.len() <= RECENT_LIMIT
+            });
+        }
+        self
+    }
+
     /// Remember a plan file (and its folder) as most recent.
     pub fn remember_file(&mut self, path: &Path) {
         push_front_unique(&mut self.recent_files, path.to_path_buf());
@@ -109,6 +127,24 @@ fn push_front_unique(list: &mut Vec<PathBuf>, item: PathBuf) {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn loaded_preferences_are_held_to_the_limits() {
+        let many: Vec<PathBuf> = (0..500)
+            .map(|i| PathBuf::from(format!("/plans/p{}.ron", i % 40)))
+            .collect();
+        let loaded = Prefs {
+            recent_files: many.clone(),
+            recent_folders: many,
+            ..Prefs::default()
+        }
+        .bounded();
+        for list in [&loaded.recent_files, &loaded.recent_folders] {
+            assert_eq!(list.len(), RECENT_LIMIT);
+            assert_eq!(list[0], PathBuf::from("/plans/p0.ron"));
+            assert_eq!(list[9], PathBuf::from("/plans/p9.ron"));
+        }
+    }
 
     #[test]
     fn recent_files_are_unique_newest_first_and_bounded() {
