@@ -270,6 +270,49 @@ fn new_plan_asks_before_discarding_changes() {
 }
 
 #[test]
+fn save_in_the_prompt_for_a_plan_without_a_file_saves_then_goes_on() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("first.ron");
+    let mut harness = harness();
+    harness.get_by_label("Add source").click();
+    harness.run();
+    let edited = harness.state().plan().clone();
+    assert!(harness.state().path().is_none() && harness.state().is_dirty());
+
+    // New plan → "Save" in the prompt → choose a file → the plan is saved,
+    // then the new plan opens, as the user asked before the prompt.
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::N);
+    harness.run();
+    harness.get_by_label("Unsaved changes");
+    harness.get_by_label("Save").click();
+    harness.run();
+    type_into(&mut harness, "Path", &path.display().to_string());
+    harness.get_by_label("Save").click();
+    harness.run();
+    let written = lampwright_plan::load_plan(&path).expect("the edited plan was saved");
+    assert_eq!(written, edited, "the file holds the plan as it was edited");
+    assert_eq!(
+        harness.state().plan().sources.len(),
+        1,
+        "then the new plan opened"
+    );
+    assert!(harness.state().path().is_none() && !harness.state().is_dirty());
+
+    // Cancelling the file browser cancels the whole request: nothing opens.
+    harness.get_by_label("Add source").click();
+    harness.run();
+    let edited = harness.state().plan().clone();
+    harness.key_press_modifiers(Modifiers::COMMAND, Key::N);
+    harness.run();
+    harness.get_by_label("Save").click();
+    harness.run();
+    harness.get_by_label("Cancel").click();
+    harness.run();
+    assert_eq!(harness.state().plan(), &edited, "cancel keeps the plan");
+    assert!(harness.state().is_dirty());
+}
+
+#[test]
 fn a_malformed_csv_shows_an_error_and_changes_nothing() {
     let dir = tempfile::tempdir().expect("temp dir");
     let path = dir.path().join("broken.csv");

@@ -189,6 +189,11 @@ impl App {
 
     /// Run one action without asking about unsaved changes.
     pub(super) fn run_action_unchecked(&mut self, ctx: &egui::Context, action: Action) {
+        // An action waiting for a first save goes on only after that save:
+        // anything else the user does meanwhile drops it.
+        if !matches!(action, Action::SaveTo(_)) {
+            self.after_save = None;
+        }
         match action {
             Action::New => {
                 self.replace_plan(starter_plan(), None);
@@ -209,7 +214,13 @@ impl App {
                 None => self.choose(Purpose::SavePlan),
             },
             Action::SaveAs => self.choose(Purpose::SavePlan),
-            Action::SaveTo(path) => self.save_to(&path),
+            Action::SaveTo(path) => {
+                self.save_to(&path);
+                let next = self.after_save.take();
+                if let Some(next) = next.filter(|_| !self.is_dirty()) {
+                    self.run_action_unchecked(ctx, next);
+                }
+            }
             Action::Import(kind) => self.choose(Purpose::ImportCsv(kind)),
             Action::ImportPath(path, kind) => {
                 self.dialog = Some(Dialog::CsvKind(CsvImport::new(path, kind)));

@@ -97,6 +97,9 @@ pub struct App {
     pub(super) dialog: Option<Dialog>,
     pub(super) advisor: super::advisor::AdvisorState,
     pub(super) allow_close: bool,
+    /// What to do once a first save succeeds: the action the unsaved-changes
+    /// prompt interrupted when the plan had no file yet ("Save", then go on).
+    pub(super) after_save: Option<super::actions::Action>,
     pub(super) system_dialogs: bool,
     started: Instant,
     first_frame_ms: Option<f64>,
@@ -166,6 +169,7 @@ impl App {
             dialog: None,
             advisor: super::advisor::AdvisorState::default(),
             allow_close: false,
+            after_save: None,
             system_dialogs: false,
             started,
             first_frame_ms: None,

@@ -274,7 +274,12 @@ pub fn show(app: &mut App, ctx: &egui::Context) {
     };
     match outcome {
         Outcome::Keep => app.dialog = Some(dialog),
-        Outcome::Close => {}
+        Outcome::Close => {
+            // A closed file browser cancels a save the prompt asked for.
+            if matches!(dialog, Dialog::Browse(_)) {
+                app.after_save = None;
+            }
+        }
         Outcome::Run(action) => app.run_action_unchecked(ctx, action),
         Outcome::SaveThen(action) => {
             if let Some(path) = app.path.clone() {
@@ -283,7 +288,9 @@ pub fn show(app: &mut App, ctx: &egui::Context) {
                     app.run_action_unchecked(ctx, action);
                 }
             } else {
+                // No file yet: choose one, save, then go on with `action`.
                 app.run_action_unchecked(ctx, Action::SaveAs);
+                app.after_save = Some(action);
             }
         }
         Outcome::Import(mut import) => {
