@@ -11,14 +11,16 @@ use lampwright_plan::{
     ZoneLevel, ZoneReach,
 };
 
-/// Most sources a plan edited in the window may hold (the plan crate checks its own limits on load).
-pub const MAX_SOURCES: usize = 32;
+/// Most sources a plan edited in the window may hold: the plan file's own
+/// limit, so whatever opens can be edited and saved, and the window refuses
+/// no more than a file would.
+pub const MAX_SOURCES: usize = lampwright_plan::limits::MAX_SOURCES;
 /// Most gels stacked on one source.
-pub const MAX_GELS: usize = 8;
+pub const MAX_GELS: usize = lampwright_plan::limits::MAX_GEL_STACK;
 /// Most subjects in one plan.
-pub const MAX_SUBJECTS: usize = 200;
+pub const MAX_SUBJECTS: usize = lampwright_plan::limits::MAX_SUBJECTS;
 /// Most zones.
-pub const MAX_ZONES: usize = 16;
+pub const MAX_ZONES: usize = lampwright_plan::limits::MAX_ZONES;
 
 /// An edit of one source.
 #[derive(Debug, Clone, PartialEq)]
@@ -520,6 +522,23 @@ fn set_reach(
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn the_window_adds_sources_up_to_the_file_limit_and_the_plan_still_validates() {
+        let mut plan = Plan::default();
+        for _ in 0..MAX_SOURCES {
+            apply(&mut plan, Command::AddSource(Box::default())).unwrap();
+        }
+        let refused = apply(&mut plan, Command::AddSource(Box::default())).unwrap_err();
+        assert!(
+            refused.0.contains(&MAX_SOURCES.to_string()),
+            "{}",
+            refused.0
+        );
+        assert_eq!(plan.sources.len(), lampwright_plan::limits::MAX_SOURCES);
+        // What the window can build, a plan file holds.
+        assert!(lampwright_plan::limits::check_limits(&plan).is_ok());
+    }
 
     fn two_sources() -> Plan {
         let mut plan = Plan::default();
