@@ -30,8 +30,17 @@ fn assert_well_formed(table: &ImportedTable) {
 
 fn assert_one_line_error(source: &str, err: &ColorError) {
     let text = err.to_string();
-    assert!(matches!(err, ColorError::Import { .. }), "{text}");
-    assert!(text.starts_with(&format!("{source}: line ")), "{text}");
+    let ColorError::Import { line, .. } = err else {
+        panic!("not an import error: {text}");
+    };
+    // A line of the input is named; a whole-file problem (line 0) names none.
+    let prefix = if *line == 0 {
+        format!("{source}: ")
+    } else {
+        format!("{source}: line {line}: ")
+    };
+    assert!(text.starts_with(&prefix), "{text}");
+    assert!(!text.starts_with(&format!("{source}: line 0")), "{text}");
     assert!(!text.contains('\n') && !text.contains('\r'), "{text}");
 }
 
