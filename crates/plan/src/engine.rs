@@ -490,7 +490,7 @@ impl Evaluator {
     fn zone_figures(
         &mut self,
         mix: &SpectralIrradiance,
-        sums: Option<&LightSums>,
+        sums: impl FnOnce() -> Option<LightSums>,
         zone: &str,
         warnings: &mut Vec<String>,
     ) -> LightFigures {
@@ -506,7 +506,8 @@ impl Evaluator {
         }
         self.misses += 1;
         let mut own = Vec::new();
-        let figures = light_figures(mix, sums, zone, &mut own);
+        // The sums are mixed only when the figures are not cached.
+        let figures = light_figures(mix, sums().as_ref(), zone, &mut own);
         warnings.extend(own.iter().cloned());
         remember(
             &mut self.zones,
@@ -744,14 +745,7 @@ impl Evaluator {
             .zip(&lit)
             .zip(&zone_spectra)
             .map(|((m, l), spd)| {
-                // The sums are mixed only when the figures are not cached.
-                let values = spd.values();
-                let cached = self
-                    .zones
-                    .iter()
-                    .any(|e| e.name == m.name && e.spectrum.as_slice() == values.as_slice());
-                let sums = if cached { None } else { mix_sums(&sources, l) };
-                self.zone_figures(spd, sums.as_ref(), &m.name, &mut warnings)
+                self.zone_figures(spd, || mix_sums(&sources, l), &m.name, &mut warnings)
             })
             .collect();
 
