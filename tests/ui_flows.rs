@@ -478,7 +478,7 @@ fn importing_a_good_subject_csv_adds_a_subject_and_undo_removes_it() {
     );
     let eval = app.evaluation().expect("evaluation");
     assert!(
-        eval.subjects.iter().any(|r| r.name == "swatch"),
+        eval.subjects.iter().any(|r| &*r.name == "swatch"),
         "named after the file"
     );
     harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);

@@ -132,7 +132,7 @@ fn controls(ui: &mut Ui, cx: &mut PanelCtx<'_>, eval: &Evaluation, prefs: &mut P
         ui.label(theme::caption("Group"));
         let mut groups: Vec<&str> = Vec::new();
         for r in &eval.subjects {
-            if !groups.contains(&r.group.as_str()) {
+            if !groups.contains(&&*r.group) {
                 groups.push(&r.group);
             }
         }
@@ -258,7 +258,7 @@ fn swatch_card(ui: &mut Ui, cx: &mut PanelCtx<'_>, r: &SubjectResult, card_w: f3
             });
             let dark = egui::Color32::from_gray(18);
             ui.horizontal(|ui| {
-                ui.add(egui::Label::new(RichText::new(&r.name).color(dark).strong()).truncate());
+                ui.add(egui::Label::new(RichText::new(&*r.name).color(dark).strong()).truncate());
                 if !r.included {
                     ui.label(
                         RichText::new("(excluded)")
@@ -321,11 +321,11 @@ fn across_zones(ui: &mut Ui, cx: &mut PanelCtx<'_>) {
     ui.horizontal(|ui| {
         ui.label("Subject");
         egui::ComboBox::from_id_salt("zone-subject")
-            .selected_text(current.map_or("", |r| r.name.as_str()))
+            .selected_text(current.map_or("", |r| &*r.name))
             .show_ui(ui, |ui| {
                 for r in &eval.subjects {
                     if ui
-                        .selectable_label(Some(r.index) == current.map(|c| c.index), &r.name)
+                        .selectable_label(Some(r.index) == current.map(|c| c.index), &*r.name)
                         .clicked()
                     {
                         cx.view.selected_subject = Some(r.index);
@@ -423,7 +423,7 @@ mod tests {
     fn result(index: usize, group: &str, de: f64, included: bool) -> SubjectResult {
         SubjectResult {
             index,
-            name: format!("s{index}"),
+            name: format!("s{index}").into(),
             group: group.into(),
             included,
             de2000: de,

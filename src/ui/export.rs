@@ -116,7 +116,7 @@ pub fn swatch_sheet(plan: &Plan, eval: &Evaluation) -> RgbaImage {
             [badge.r(), badge.g(), badge.b()],
         );
         let name = if subject.included {
-            subject.name.clone()
+            subject.name.to_string()
         } else {
             format!("{} (excluded)", subject.name)
         };

@@ -213,7 +213,7 @@ mod tests {
         assert!(plan.custom.gels.is_empty());
         let ids = add_imported(&mut plan, &table, LibraryKind::Subject).unwrap();
         let s = subject_reflectance(&plan, &SubjectRef::Custom(ids[0].clone())).unwrap();
-        assert_eq!(s.group, "custom");
+        assert_eq!(&*s.group, "custom");
         assert!(
             (s.reflectance.at_nm(580.0) - 0.4).abs() < 1e-9,
             "percent was converted"

@@ -262,7 +262,7 @@ fn light_figures(
 ) -> LightFigures {
     let lux = illuminance_lux(mix);
     let mut fig = LightFigures {
-        spectrum: mix.values().to_vec(),
+        spectrum: Arc::from(&mix.values()[..]),
         illuminance_lux: lux,
         ..LightFigures::default()
     };
@@ -316,11 +316,11 @@ fn light_figures(
             fig.tm30_rf = Some(t.rf);
             fig.tm30_rg = Some(t.rg);
             fig.tm30_bins = Some(Tm30Bins {
-                rf_hj: t.rf_hj.to_vec(),
-                rcs_hj: t.rcs_hj.to_vec(),
-                rhs_hj: t.rhs_hj.to_vec(),
-                reference_ab: t.bin_reference_ab.to_vec(),
-                test_ab: t.bin_test_ab.to_vec(),
+                rf_hj: t.rf_hj,
+                rcs_hj: t.rcs_hj,
+                rhs_hj: t.rhs_hj,
+                reference_ab: t.bin_reference_ab,
+                test_ab: t.bin_test_ab,
             });
         }
         Err(e) => warnings.push(format!("{zone}: no TM-30 figures: {e}")),
@@ -839,12 +839,10 @@ fn source_figures(sources: &[SourceLight], parts: &[(usize, f64)]) -> Vec<Source
                 cct_k: cct.map(|c| c.cct_k),
                 duv: cct.map(|c| c.duv),
                 spectrum: if s.lit {
-                    s.per_lux
-                        .scaled(level_in_main(i).unwrap_or(0.0) * s.dimmer_flux)
-                        .values()
-                        .to_vec()
+                    let w = level_in_main(i).unwrap_or(0.0) * s.dimmer_flux;
+                    s.per_lux.values().iter().map(|v| v * w).collect()
                 } else {
-                    vec![0.0; GRID_LEN]
+                    Arc::from([0.0; GRID_LEN])
                 },
             }
         })

@@ -3,6 +3,7 @@
 //! computed are `None` with a warning saying why.
 
 use serde::Serialize;
+use std::sync::Arc;
 
 /// Number of hue bins in TM-30.
 pub const TM30_BINS: usize = 16;
@@ -31,8 +32,9 @@ pub struct Evaluation {
 /// Figures of one light mix.
 #[derive(Debug, Clone, PartialEq, Serialize, Default)]
 pub struct LightFigures {
-    /// Mixed spectral irradiance at the subject, W·m⁻²·nm⁻¹, 360–830 nm at 1 nm.
-    pub spectrum: Vec<f64>,
+    /// Mixed spectral irradiance at the subject, W·m⁻²·nm⁻¹, 360–830 nm at 1 nm
+    /// (shared, not copied, between evaluations that reuse it).
+    pub spectrum: Arc<[f64]>,
     /// Illuminance, lux.
     pub illuminance_lux: f64,
     /// Incident exposure value at ISO 100 (None when dark).
@@ -65,15 +67,15 @@ pub struct LightFigures {
 #[derive(Debug, Clone, PartialEq, Serialize, Default)]
 pub struct Tm30Bins {
     /// Local fidelity Rf,hj.
-    pub rf_hj: Vec<f64>,
+    pub rf_hj: [f64; TM30_BINS],
     /// Local chroma shift Rcs,hj (fraction, +0.1 = 10 % more saturated).
-    pub rcs_hj: Vec<f64>,
+    pub rcs_hj: [f64; TM30_BINS],
     /// Local hue shift Rhs,hj (radians).
-    pub rhs_hj: Vec<f64>,
+    pub rhs_hj: [f64; TM30_BINS],
     /// Reference average a′b′ per bin.
-    pub reference_ab: Vec<[f64; 2]>,
+    pub reference_ab: [[f64; 2]; TM30_BINS],
     /// Test average a′b′ per bin.
-    pub test_ab: Vec<[f64; 2]>,
+    pub test_ab: [[f64; 2]; TM30_BINS],
 }
 
 /// One source's share of a mix.
@@ -96,7 +98,7 @@ pub struct SourceFigures {
     /// Its Duv after gels and dimmer.
     pub duv: Option<f64>,
     /// Its spectral irradiance contribution, W·m⁻²·nm⁻¹, 360–830 nm at 1 nm.
-    pub spectrum: Vec<f64>,
+    pub spectrum: Arc<[f64]>,
 }
 
 /// The evaluation of one zone.
@@ -123,9 +125,9 @@ pub struct SubjectResult {
     /// Index in the plan's subject list.
     pub index: usize,
     /// Name.
-    pub name: String,
+    pub name: Arc<str>,
     /// Group (skin, food, fabric, foliage, neutrals, products, custom ...).
-    pub group: String,
+    pub group: Arc<str>,
     /// Counts for the summary and the advisor.
     pub included: bool,
     /// CIELAB (D65) of what the eye sees.
@@ -154,16 +156,16 @@ pub struct Summary {
     /// Largest.
     pub max_de2000: Option<f64>,
     /// Name of the subject with the largest difference.
-    pub worst_subject: Option<String>,
+    pub worst_subject: Option<Arc<str>>,
 }
 
 /// A pair of subjects that match to one observer but not the other.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct MetamerPair {
     /// First subject's name.
-    pub a: String,
+    pub a: Arc<str>,
     /// Second subject's name.
-    pub b: String,
+    pub b: Arc<str>,
     /// ΔE00 between them to the eye.
     pub eye_de2000: f64,
     /// ΔE00 between them on the camera.
@@ -178,7 +180,7 @@ pub struct CameraFigures {
     /// Camera name.
     pub name: String,
     /// Sensitivities r, g, b on the grid (peak-normalised), for plotting.
-    pub sensitivities: [Vec<f64>; 3],
+    pub sensitivities: Arc<[Vec<f64>; 3]>,
     /// Luther residual (0 = a linear mix of the CIE functions).
     pub luther_residual: f64,
     /// Vora–Trussell µ-factor (1 = colorimetric).

@@ -82,7 +82,7 @@ const PIPELINES_KEPT: usize = 8;
 #[derive(Default)]
 pub struct CameraCache {
     pipelines: Vec<PipelineEntry>,
-    shown_curves: Option<(CameraRef, [Vec<f64>; 3])>,
+    shown_curves: Option<(CameraRef, Arc<[Vec<f64>; 3]>)>,
 }
 
 /// A zone's light as the camera stage needs it.
@@ -180,11 +180,11 @@ impl CameraStage {
     ) -> Result<CameraStage> {
         let settings = camera_settings(plan);
         let shown = match &cache.shown_curves {
-            Some((r, curves)) if *r == plan.camera.camera => curves.clone(),
+            Some((r, curves)) if *r == plan.camera.camera => Arc::clone(curves),
             _ => {
                 let channels = camera.channels();
-                let curves = [0, 1, 2].map(|i| peak_normalised(channels[i].values()));
-                cache.shown_curves = Some((plan.camera.camera.clone(), curves.clone()));
+                let curves = Arc::new([0, 1, 2].map(|i| peak_normalised(channels[i].values())));
+                cache.shown_curves = Some((plan.camera.camera.clone(), Arc::clone(&curves)));
                 curves
             }
         };
@@ -344,7 +344,11 @@ impl CameraStage {
             });
         }
         let m = camera_metamers(&comparison.subjects);
-        let name = |i: usize| subjects.get(i).map_or_else(String::new, |s| s.name.clone());
+        let name = |i: usize| {
+            subjects
+                .get(i)
+                .map_or_else(|| Arc::from(""), |s| Arc::clone(&s.name))
+        };
         let metamers = m
             .eye_matches_camera_splits
             .iter()
@@ -389,8 +393,8 @@ fn result(
     };
     SubjectResult {
         index,
-        name: s.name.clone(),
-        group: s.group.clone(),
+        name: Arc::clone(&s.name),
+        group: Arc::clone(&s.group),
         included: plan.subjects.get(index).is_some_and(|e| e.included),
         eye_lab: finite3([eye_lab.l, eye_lab.a, eye_lab.b]),
         camera_lab: finite3([c.camera_lab.l, c.camera_lab.a, c.camera_lab.b]),
@@ -405,8 +409,8 @@ fn result(
 fn black(plan: &Plan, index: usize, s: &ResolvedSubject) -> SubjectResult {
     SubjectResult {
         index,
-        name: s.name.clone(),
-        group: s.group.clone(),
+        name: Arc::clone(&s.name),
+        group: Arc::clone(&s.group),
         included: plan.subjects.get(index).is_some_and(|e| e.included),
         eye_in_gamut: true,
         camera_in_gamut: true,

@@ -13,6 +13,7 @@ use crate::model::{CameraRef, CustomSpectrum, GelRef, LampRef, Plan, Source, Sub
 use lampwright_camera::CameraSensitivities;
 use lampwright_color::illuminant::{daylight, planckian};
 use lampwright_color::{Reflectance, RelativeSpd, Sensitivity, Transmittance};
+use std::sync::Arc;
 
 /// Exponent of the filament temperature's dependence on voltage:
 /// `T = T_full · V^0.42` (common practice for tungsten filaments, from memory).
@@ -286,10 +287,10 @@ pub fn resolve_source(plan: &Plan, source: &Source) -> Result<ResolvedSource> {
 /// A subject resolved to its reflectance.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ResolvedSubject {
-    /// Display name.
-    pub name: String,
+    /// Display name (shared with every result that names it).
+    pub name: Arc<str>,
     /// Group (skin, food, ... or the embedded subject's group, "custom" when empty).
-    pub group: String,
+    pub group: Arc<str>,
     /// Reflectance on the grid.
     pub reflectance: Reflectance,
 }
@@ -302,8 +303,8 @@ pub fn subject_reflectance(plan: &Plan, subject: &SubjectRef) -> Result<Resolved
             let item =
                 library::subject(id).ok_or_else(|| unknown(context, LibraryKind::Subject, id))?;
             Ok(ResolvedSubject {
-                name: item.name.to_string(),
-                group: item.group.to_string(),
+                name: item.name.into(),
+                group: item.group.into(),
                 reflectance: item.reflectance()?.clone(),
             })
         }
@@ -318,11 +319,11 @@ pub fn subject_reflectance(plan: &Plan, subject: &SubjectRef) -> Result<Resolved
                 Reflectance::from_samples(&s.spectrum.wavelengths_nm, &s.spectrum.values)
                     .map_err(|e| PlanError::color_in(format!("embedded subject '{id}'"), e))?;
             Ok(ResolvedSubject {
-                name: non_empty(&s.spectrum.name, id),
+                name: non_empty(&s.spectrum.name, id).into(),
                 group: if s.group.trim().is_empty() {
                     "custom".into()
                 } else {
-                    s.group.clone()
+                    s.group.as_str().into()
                 },
                 reflectance,
             })
@@ -468,8 +469,8 @@ mod tests {
             group: String::new(),
         });
         let r = subject_reflectance(&plan, &SubjectRef::Custom("paint".into())).unwrap();
-        assert_eq!(r.name, "Wall paint");
-        assert_eq!(r.group, "custom");
+        assert_eq!(&*r.name, "Wall paint");
+        assert_eq!(&*r.group, "custom");
         assert!((r.reflectance.at_nm(580.0) - 0.4).abs() < 1e-9);
         plan.custom.lamps.push(CustomSpectrum {
             id: "bad".into(),

@@ -169,7 +169,11 @@ fn applying_a_suggestion_gives_the_figures_it_promised() {
                     close(Some(s.after.illuminance_lux), Some(e.light.illuminance_lux)),
                     "{what}"
                 );
-                assert_eq!(s.after.worst_subject, e.summary.worst_subject, "{what}");
+                assert_eq!(
+                    s.after.worst_subject.as_deref(),
+                    e.summary.worst_subject.as_deref(),
+                    "{what}"
+                );
                 // Every suggestion improves the goal on the plan as it stands.
                 assert!(
                     s.after.goal_cost.unwrap() < advice.before.goal_cost.unwrap_or(f64::INFINITY),

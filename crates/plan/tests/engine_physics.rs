@@ -80,7 +80,7 @@ fn two_half_sources_equal_one_full() {
     ]))
     .unwrap();
     assert!((one.light.illuminance_lux - two.light.illuminance_lux).abs() < 1e-9);
-    for (a, b) in one.light.spectrum.iter().zip(&two.light.spectrum) {
+    for (a, b) in one.light.spectrum.iter().zip(two.light.spectrum.iter()) {
         assert!((a - b).abs() <= 1e-12 * a.abs().max(1.0));
     }
     assert!((one.light.cct_k.unwrap() - two.light.cct_k.unwrap()).abs() < 1e-9);

@@ -55,12 +55,8 @@ fn plot(ui: &mut egui::Ui, eval: &Evaluation, selected: Option<usize>, side: f32
                 );
                 if is_selected {
                     plot.text(
-                        Text::new(
-                            "selected",
-                            PlotPoint::new(eye[0], eye[1] + 3.0),
-                            r.name.clone(),
-                        )
-                        .color(theme::ACCENT),
+                        Text::new("selected", PlotPoint::new(eye[0], eye[1] + 3.0), &*r.name)
+                            .color(theme::ACCENT),
                     );
                 }
             }
@@ -85,7 +81,7 @@ fn table(ui: &mut egui::Ui, eval: &Evaluation, selected: Option<usize>) {
                     ui.label(theme::caption("ΔE00"));
                     ui.end_row();
                     for r in rows {
-                        let name = egui::RichText::new(&r.name);
+                        let name = egui::RichText::new(&*r.name);
                         let name = if selected == Some(r.index) {
                             name.color(theme::ACCENT)
                         } else {

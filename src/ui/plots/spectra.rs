@@ -56,7 +56,7 @@ pub fn reflectance(ui: &mut egui::Ui, plan: &Plan, eval: &Evaluation, selected: 
         .subjects
         .iter()
         .find(|r| r.index == index)
-        .map_or_else(|| format!("subject {}", index + 1), |r| r.name.clone());
+        .map_or_else(|| format!("subject {}", index + 1), |r| r.name.to_string());
     let reflectance = upstream::subject_reflectance(plan, &plan.subjects[index].subject);
     let color = eval
         .subjects

@@ -56,7 +56,7 @@ pub(crate) fn figures(
         mean_de2000: eval.summary.mean_de2000,
         weighted_mean_de2000: inputs.weighted_mean_de2000,
         max_de2000: eval.summary.max_de2000,
-        worst_subject: eval.summary.worst_subject.clone(),
+        worst_subject: eval.summary.worst_subject.as_deref().map(String::from),
         cct_k: eval.light.cct_k,
         duv: eval.light.duv,
         rf: eval.light.tm30_rf,

@@ -226,7 +226,7 @@ pub(crate) mod sample {
                 gel_loss_stops: 0.42,
                 cct_k: Some(4987.0),
                 duv: Some(0.0042),
-                spectrum: vec![0.0; lampwright_color::GRID_LEN],
+                spectrum: vec![0.0; lampwright_color::GRID_LEN].into(),
             }],
             zones: vec![
                 ZoneEvaluation {
@@ -262,7 +262,7 @@ pub(crate) mod sample {
             }],
             camera: CameraFigures {
                 name: "Demo camera A".into(),
-                sensitivities: [vec![0.5; 3], vec![0.5; 3], vec![0.5; 3]],
+                sensitivities: [vec![0.5; 3], vec![0.5; 3], vec![0.5; 3]].into(),
                 luther_residual: 0.12,
                 mu_factor: 0.93,
                 wb_gains: [1.9, 1.0, 1.6],
