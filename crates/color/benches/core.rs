@@ -90,6 +90,15 @@ fn bench_cam02(c: &mut Criterion) {
     c.bench_function("Cam02Ucs::jab_many (99 samples, as TM-30)", |b| {
         b.iter(|| ucs.jab_many(black_box(&many)));
     });
+    // The powers inside it: 297 values (three channels of 99 samples).
+    let bases: Vec<f64> = (0..297).map(|i| 0.05 + f64::from(i) * 0.37).collect();
+    c.bench_function("batch_math::pow_nonnegative_in_place (297 values)", |b| {
+        b.iter(|| {
+            let mut v = bases.clone();
+            lampwright_color::batch_math::pow_nonnegative_in_place(black_box(&mut v), 0.42);
+            v
+        });
+    });
     c.bench_function("Cam02::appearance (all correlates)", |b| {
         b.iter(|| {
             ucs.cam02()
