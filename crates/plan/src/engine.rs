@@ -34,6 +34,7 @@ use lampwright_color::photometry::{ev100_from_illuminance_lux, illuminance_lux};
 use lampwright_color::spaces::Uv1960;
 use lampwright_color::spectrum::{Curve, GRID_LEN, SpectralIrradiance};
 use lampwright_color::tristimulus::KM_LM_PER_W;
+use std::collections::VecDeque;
 use std::sync::Arc;
 
 /// Below this illuminance a mix counts as dark: no colour figures.
@@ -378,21 +379,21 @@ impl SourceKey {
     }
 }
 
-/// A zone's light figures and the warnings they raised, for one exact mix.
+/// A zone's light figures and the warnings they raised, for one exact mix
+/// (the figures hold the mixed spectrum, the key).
 #[derive(Debug, Clone)]
 struct ZoneEntry {
     name: String,
-    spectrum: Vec<f64>,
     figures: LightFigures,
     warnings: Vec<String>,
 }
 
 /// Keep at most [`CACHE_ENTRIES`], dropping the oldest.
-fn remember<T>(cache: &mut Vec<T>, entry: T) {
+fn remember<T>(cache: &mut VecDeque<T>, entry: T) {
     if cache.len() >= CACHE_ENTRIES {
-        cache.remove(0);
+        cache.pop_front();
     }
-    cache.push(entry);
+    cache.push_back(entry);
 }
 
 /// Evaluates a plan that is being edited, reusing the work an edit did not
@@ -409,14 +410,14 @@ fn remember<T>(cache: &mut Vec<T>, entry: T) {
 #[derive(Default)]
 pub struct Evaluator {
     custom: Option<crate::model::CustomLibrary>,
-    sources: Vec<(SourceKey, SourceLight)>,
-    zones: Vec<ZoneEntry>,
-    cameras: Vec<(crate::model::CameraRef, crate::render::CameraQuality)>,
+    sources: VecDeque<(SourceKey, SourceLight)>,
+    zones: VecDeque<ZoneEntry>,
+    cameras: VecDeque<(crate::model::CameraRef, crate::render::CameraQuality)>,
     camera_cache: crate::render::CameraCache,
-    subject_sums: Vec<SubjectSumsEntry>,
+    subject_sums: VecDeque<SubjectSumsEntry>,
     resolved_subjects: Vec<(crate::model::SubjectRef, Arc<resolve::ResolvedSubject>)>,
     resolved_camera: Option<(CameraRef, Arc<CameraSensitivities>)>,
-    training_sums: Vec<(SourceKey, CameraRef, Arc<SignalSums>)>,
+    training_sums: VecDeque<(SourceKey, CameraRef, Arc<SignalSums>)>,
     hits: u64,
     misses: u64,
 }
@@ -498,7 +499,7 @@ impl Evaluator {
         if let Some(e) = self
             .zones
             .iter()
-            .find(|e| e.name == zone && e.spectrum.as_slice() == values.as_slice())
+            .find(|e| e.name == zone && *e.figures.spectrum == values[..])
         {
             self.hits += 1;
             warnings.extend(e.warnings.iter().cloned());
@@ -513,7 +514,6 @@ impl Evaluator {
             &mut self.zones,
             ZoneEntry {
                 name: zone.to_owned(),
-                spectrum: values.to_vec(),
                 figures: figures.clone(),
                 warnings: own,
             },
