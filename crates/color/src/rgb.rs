@@ -188,17 +188,43 @@ static CODE8_THRESHOLDS: LazyLock<Vec<f64>> = LazyLock::new(|| {
         .collect()
 });
 
+/// Buckets of [`CODE8_THRESHOLDS`] over [0, 1]: 2¹² of equal width.
+const CODE8_BUCKETS: usize = 4096;
+
+/// Per bucket b, the number of thresholds at or below b/4096: the code of
+/// the bucket's lowest value. No bucket holds more than two thresholds (the
+/// closest lie 1/(255·12.92) ≈ 3.0e-4 apart, more than a bucket's 2.4e-4).
+static CODE8_BUCKET_START: LazyLock<Vec<u8>> = LazyLock::new(|| {
+    (0..=CODE8_BUCKETS)
+        .map(|b| {
+            let v = b as f64 / CODE8_BUCKETS as f64;
+            u8::try_from(CODE8_THRESHOLDS.partition_point(|t| *t <= v)).unwrap_or(u8::MAX)
+        })
+        .collect()
+});
+
 /// 8-bit swatch values of many light-linear triples at once, each exactly as
 /// [`LinearRgb::to_rgb8_clamped`] gives it (clamped to [0, 1] in linear
-/// light, NaN as 0, sRGB-encoded, rounded), by a search in the 255 code
-/// thresholds instead of a power per value.
+/// light, NaN as 0, sRGB-encoded, rounded), by counting the 255 code
+/// thresholds at or below the value (from its bucket's start) instead of a
+/// power per value.
 #[must_use]
 pub fn rgb8_clamped_many(linear: &[[f64; 3]]) -> Vec<[u8; 3]> {
     let thresholds = &*CODE8_THRESHOLDS;
+    let starts = &*CODE8_BUCKET_START;
     let code = |v: f64| {
         let v = if v.is_nan() { 0.0 } else { v.clamp(0.0, 1.0) };
-        // At most 255 thresholds: the count always fits in a byte.
-        u8::try_from(thresholds.partition_point(|t| *t <= v)).unwrap_or(u8::MAX)
+        // v·4096 is exact, so the bucket's lower edge is at or below v.
+        let bucket = (v * CODE8_BUCKETS as f64) as usize;
+        let mut code = starts.get(bucket).copied().unwrap_or(u8::MAX);
+        while let Some(t) = thresholds.get(usize::from(code)) {
+            if *t > v {
+                break;
+            }
+            // Below 255 here: `thresholds` has 255 entries.
+            code += 1;
+        }
+        code
     };
     linear
         .iter()
