@@ -99,6 +99,38 @@ fn bench_cam02(c: &mut Criterion) {
             v
         });
     });
+    // The camera's inner loop: 137 reflectances (24 subjects and the 113
+    // training samples) dotted with six light-weighted curves.
+    let rows: Vec<Vec<f64>> = (0..137)
+        .map(|i| {
+            (0..471)
+                .map(|j| 0.3 + 0.2 * (f64::from(i) * 0.1 + f64::from(j) * 0.013).sin())
+                .collect()
+        })
+        .collect();
+    let refs: Vec<&[f64]> = rows.iter().map(Vec::as_slice).collect();
+    let weights: Vec<Vec<f64>> = (0..6)
+        .map(|k| {
+            (0..471)
+                .map(|j| f64::from(j * (k + 1) % 97) / 97.0)
+                .collect()
+        })
+        .collect();
+    c.bench_function("weighted_sums_6 (137 rows × 471 values)", |b| {
+        b.iter(|| {
+            lampwright_color::weighted_sums::weighted_sums_6(
+                black_box(&refs),
+                [
+                    &weights[0],
+                    &weights[1],
+                    &weights[2],
+                    &weights[3],
+                    &weights[4],
+                    &weights[5],
+                ],
+            )
+        });
+    });
     c.bench_function("Cam02::appearance (all correlates)", |b| {
         b.iter(|| {
             ucs.cam02()

@@ -30,13 +30,16 @@ pub fn weighted_sums_3(rows: &[&[f64]], weights: [&[f64]; 3]) -> Vec<[f64; 3]> {
 /// Rows and weights are read over the shortest common length.
 #[must_use]
 pub fn weighted_sums_6(rows: &[&[f64]], weights: [&[f64]; 6]) -> Vec<[f64; 6]> {
-    let mut out = vec![[0.0; 6]; rows.len()];
-    pulp::Arch::new().dispatch(Sums::<6, 2> {
-        rows,
-        weights,
-        out: &mut out,
-    });
-    out
+    // Two passes of three weights (three rows at a time): six weights and
+    // two rows at once need more vector registers than AVX2 has, and the
+    // spilled sums then cost far more than reading the rows twice.
+    let first = weighted_sums_3(rows, [weights[0], weights[1], weights[2]]);
+    let second = weighted_sums_3(rows, [weights[3], weights[4], weights[5]]);
+    first
+        .into_iter()
+        .zip(second)
+        .map(|([a, b, c], [d, e, f])| [a, b, c, d, e, f])
+        .collect()
 }
 
 /// `K` weight vectors, `R` rows a pass.
