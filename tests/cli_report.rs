@@ -135,6 +135,14 @@ fn json_report_lists_zones_and_matches_the_engine() {
     let names: Vec<&str> = zones.iter().map(|z| z["name"].as_str().unwrap()).collect();
     assert_eq!(names, vec!["Interviewee", "Back wall", "Table top"]);
     assert_eq!(v["subjects"].as_array().unwrap().len(), 24);
+    // Shared names and fixed-size bins are written as plain strings and arrays.
+    assert_eq!(v["subjects"][0]["name"], "Skin, light (pink undertone)");
+    assert_eq!(v["subjects"][0]["group"], "skin");
+    assert_eq!(
+        v["light"]["tm30_bins"]["rf_hj"].as_array().unwrap().len(),
+        16
+    );
+    assert_eq!(v["light"]["spectrum"].as_array().unwrap().len(), 471);
     // The command line and the library share one engine: same figures (to a
     // few ULP: serde_json's default float parser is not always correctly rounded).
     let same = |json: &Value, lib: Option<f64>| {
