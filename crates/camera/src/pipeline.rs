@@ -34,7 +34,7 @@ use crate::sensitivities::CameraSensitivities;
 use crate::training::TrainingSet;
 use crate::white_balance::{ResolvedWhiteBalance, WhiteBalance, resolve_white_balance};
 use lampwright_color::adaptation::apply_matrix;
-use lampwright_color::delta_e::{ciede2000_lower_bound, delta_e_ciede2000, delta_e_ciede2000_many};
+use lampwright_color::delta_e::{ciede2000_surely_at_least, delta_e_ciede2000_many};
 use lampwright_color::observer::Observer;
 use lampwright_color::spaces::Lab;
 use lampwright_color::{Reflectance, RelativeSpd, Xyz};
@@ -407,29 +407,39 @@ pub struct CameraMetamers {
 /// [`METAMER_MATCH_DE`] and [`METAMER_DIFFER_DE`]).
 #[must_use]
 pub fn camera_metamers(subjects: &[SubjectComparison]) -> CameraMetamers {
-    let mut out = CameraMetamers::default();
+    // A pair matters only when one viewer sees a match (ΔE00 below the match
+    // threshold); pairs whose lightness alone puts both differences at or
+    // above it are screened out, and the rest are measured together.
+    let mut candidates = Vec::new();
     for (i, a) in subjects.iter().enumerate() {
         for (j, b) in subjects.iter().enumerate().skip(i + 1) {
-            // A pair matters only when one viewer sees a match (ΔE00 below
-            // the match threshold); skip pairs whose lightness alone puts
-            // both differences above it.
-            if ciede2000_lower_bound(a.eye_lab, b.eye_lab) >= METAMER_MATCH_DE
-                && ciede2000_lower_bound(a.camera_lab, b.camera_lab) >= METAMER_MATCH_DE
+            if !(ciede2000_surely_at_least(a.eye_lab, b.eye_lab, METAMER_MATCH_DE)
+                && ciede2000_surely_at_least(a.camera_lab, b.camera_lab, METAMER_MATCH_DE))
             {
-                continue;
+                candidates.push((i, j));
             }
-            let pair = MetamerPair {
-                first: i,
-                second: j,
-                delta_e_eye: delta_e_ciede2000(a.eye_lab, b.eye_lab),
-                delta_e_camera: delta_e_ciede2000(a.camera_lab, b.camera_lab),
-            };
-            if pair.delta_e_eye < METAMER_MATCH_DE && pair.delta_e_camera > METAMER_DIFFER_DE {
-                out.eye_matches_camera_splits.push(pair);
-            } else if pair.delta_e_camera < METAMER_MATCH_DE && pair.delta_e_eye > METAMER_DIFFER_DE
-            {
-                out.camera_matches_eye_splits.push(pair);
-            }
+        }
+    }
+    let pairs: Vec<(Lab, Lab)> = candidates
+        .iter()
+        .flat_map(|&(i, j)| {
+            let (a, b) = (&subjects[i], &subjects[j]);
+            [(a.eye_lab, b.eye_lab), (a.camera_lab, b.camera_lab)]
+        })
+        .collect();
+    let delta_e = delta_e_ciede2000_many(&pairs);
+    let mut out = CameraMetamers::default();
+    for (&(first, second), de) in candidates.iter().zip(delta_e.chunks_exact(2)) {
+        let pair = MetamerPair {
+            first,
+            second,
+            delta_e_eye: de[0],
+            delta_e_camera: de[1],
+        };
+        if pair.delta_e_eye < METAMER_MATCH_DE && pair.delta_e_camera > METAMER_DIFFER_DE {
+            out.eye_matches_camera_splits.push(pair);
+        } else if pair.delta_e_camera < METAMER_MATCH_DE && pair.delta_e_eye > METAMER_DIFFER_DE {
+            out.camera_matches_eye_splits.push(pair);
         }
     }
     out
@@ -583,27 +593,93 @@ mod tests {
         assert!(c.delta_e_stats.is_some());
     }
 
+    /// A comparison that carries only the two CIELAB colours metamers use.
+    fn mk(eye: Lab, cam: Lab) -> SubjectComparison {
+        let dc = DisplayTransform::new(DisplaySpace::Srgb)
+            .unwrap()
+            .color(Xyz::default());
+        SubjectComparison {
+            raw_rgb: [0.0; 3],
+            balanced_rgb: [0.0; 3],
+            eye_xyz_as_lit: Xyz::default(),
+            eye_xyz: Xyz::default(),
+            camera_xyz: Xyz::default(),
+            eye_lab_as_lit: eye,
+            eye_lab: eye,
+            camera_lab: cam,
+            eye_display: dc,
+            eye_display_as_lit: dc,
+            camera_display: dc,
+            delta_e_ciede2000: 0.0,
+        }
+    }
+
+    #[test]
+    fn screened_metamer_search_finds_what_checking_every_pair_finds() {
+        // Colours in tight clusters (near matches for one viewer or both) and
+        // spread over lightness, so that screening skips most pairs.
+        let mut seed = 0x2545_F491_4F6C_DD1Du64;
+        let mut next = || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            (seed >> 11) as f64 / (1u64 << 53) as f64
+        };
+        let subjects: Vec<SubjectComparison> = (0..60)
+            .map(|i| {
+                let l = 20.0 + 6.0 * f64::from(i % 12);
+                let tight = Lab::new(l + next(), 10.0 + 2.0 * next(), -5.0 + 2.0 * next());
+                let loose = Lab::new(l + 4.0 * next(), 10.0 + 8.0 * next(), -5.0 + 8.0 * next());
+                // Half the subjects tight to the eye, half tight to the camera.
+                if i % 2 == 0 {
+                    mk(tight, loose)
+                } else {
+                    mk(loose, tight)
+                }
+            })
+            .collect();
+        let got = camera_metamers(&subjects);
+        let mut want = CameraMetamers::default();
+        for (i, a) in subjects.iter().enumerate() {
+            for (j, b) in subjects.iter().enumerate().skip(i + 1) {
+                let eye = lampwright_color::delta_e::delta_e_ciede2000(a.eye_lab, b.eye_lab);
+                let cam = lampwright_color::delta_e::delta_e_ciede2000(a.camera_lab, b.camera_lab);
+                let pair = MetamerPair {
+                    first: i,
+                    second: j,
+                    delta_e_eye: eye,
+                    delta_e_camera: cam,
+                };
+                if eye < METAMER_MATCH_DE && cam > METAMER_DIFFER_DE {
+                    want.eye_matches_camera_splits.push(pair);
+                } else if cam < METAMER_MATCH_DE && eye > METAMER_DIFFER_DE {
+                    want.camera_matches_eye_splits.push(pair);
+                }
+            }
+        }
+        assert!(!want.eye_matches_camera_splits.is_empty());
+        assert!(!want.camera_matches_eye_splits.is_empty());
+        for (g, w) in [
+            (
+                &got.eye_matches_camera_splits,
+                &want.eye_matches_camera_splits,
+            ),
+            (
+                &got.camera_matches_eye_splits,
+                &want.camera_matches_eye_splits,
+            ),
+        ] {
+            assert_eq!(g.len(), w.len());
+            for (g, w) in g.iter().zip(w.iter()) {
+                assert_eq!((g.first, g.second), (w.first, w.second));
+                assert!((g.delta_e_eye - w.delta_e_eye).abs() < 1e-12);
+                assert!((g.delta_e_camera - w.delta_e_camera).abs() < 1e-12);
+            }
+        }
+    }
+
     #[test]
     fn metamers_are_found_both_ways() {
-        let mk = |eye: Lab, cam: Lab| {
-            let dc = DisplayTransform::new(DisplaySpace::Srgb)
-                .unwrap()
-                .color(Xyz::default());
-            SubjectComparison {
-                raw_rgb: [0.0; 3],
-                balanced_rgb: [0.0; 3],
-                eye_xyz_as_lit: Xyz::default(),
-                eye_xyz: Xyz::default(),
-                camera_xyz: Xyz::default(),
-                eye_lab_as_lit: eye,
-                eye_lab: eye,
-                camera_lab: cam,
-                eye_display: dc,
-                eye_display_as_lit: dc,
-                camera_display: dc,
-                delta_e_ciede2000: 0.0,
-            }
-        };
         let s = [
             mk(Lab::new(50.0, 10.0, 10.0), Lab::new(50.0, 10.0, 10.0)),
             mk(Lab::new(50.2, 10.0, 10.0), Lab::new(50.0, 20.0, 10.0)), // eye match, camera split

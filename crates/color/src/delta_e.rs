@@ -450,14 +450,17 @@ pub fn delta_e_ciede2000_many(pairs: &[(Lab, Lab)]) -> Vec<f64> {
     out
 }
 
-/// A lower bound of ΔE00 (kL = 1) that costs one square root: the lightness
-/// term alone, |ΔL| / `S_L`, since the rest of the quadratic form,
-/// ΔC′² + ΔH′² + `R_T`·ΔC′·ΔH′ (scaled) with |`R_T`| ≤ 2, is never negative.
+/// Whether ΔE00 (kL = 1) between two colours is surely at least `threshold`,
+/// judged from lightness alone with no division or square root: the rest of
+/// the quadratic form, ΔC′² + ΔH′² + `R_T`·ΔC′·ΔH′ (scaled) with |`R_T`| ≤ 2, is
+/// never negative, so ΔE00 ≥ |ΔL| / `S_L`; and `S_L` = 1 + 0.015·d²/√(20 + d²)
+/// ≤ 1 + 0.015·d with d = |L̄ − 50|. True when |ΔL| ≥ threshold·(1 + 0.015·d),
+/// with a relative margin of 1e-12 for rounding. A screen for pairwise
+/// searches: `false` says nothing.
 #[must_use]
-pub fn ciede2000_lower_bound(lab1: Lab, lab2: Lab) -> f64 {
-    let l50 = (f64::midpoint(lab1.l, lab2.l) - 50.0).powi(2);
-    let s_l = 1.0 + 0.015 * l50 / (20.0 + l50).sqrt();
-    (lab2.l - lab1.l).abs() / s_l
+pub fn ciede2000_surely_at_least(lab1: Lab, lab2: Lab, threshold: f64) -> bool {
+    let d = (f64::midpoint(lab1.l, lab2.l) - 50.0).abs();
+    (lab2.l - lab1.l).abs() >= threshold * (1.0 + 0.015 * d) * (1.0 + 1e-12)
 }
 
 #[cfg(test)]
@@ -478,7 +481,9 @@ mod tests {
             let fast = ciede2000(l1, l2, w, true);
             let slow = ciede2000(l1, l2, w, false);
             prop_assert!((fast - slow).abs() <= 1e-9 * slow.max(1.0), "{} vs {}", fast, slow);
-            prop_assert!(ciede2000_lower_bound(l1, l2) <= fast + 1e-12);
+            for t in [0.5, 1.0, 3.0] {
+                prop_assert!(!ciede2000_surely_at_least(l1, l2, t) || fast >= t);
+            }
         }
 
         #[test]
