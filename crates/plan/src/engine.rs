@@ -759,7 +759,7 @@ impl Evaluator {
         let mut metamers = Vec::new();
         let main_lux = zone_lights[0].illuminance_lux;
         for (z, (m, light)) in mixes.iter().zip(zone_lights).enumerate() {
-            let rendered = camera.render(plan, z, &subjects, z == 0, &mut warnings)?;
+            let rendered = camera.render(plan, z, &subjects, z == 0, &mut warnings);
             if zones.is_empty() {
                 metamers = rendered.metamers;
             }

@@ -14,14 +14,12 @@ use crate::model::{
     Adaptation, CameraRef, Display, FitMethod, MatrixMode, Plan, WbPreset, WhiteBalanceSetting,
 };
 use crate::resolve::ResolvedSubject;
-use lampwright_camera::ColorCorrection;
 use lampwright_camera::display::DisplaySpace;
 use lampwright_camera::pipeline::{
     CameraPipeline, CameraSettings, SubjectComparison, camera_metamers,
 };
 use lampwright_camera::quality::luther_and_mu;
 use lampwright_camera::raw::{SignalSums, SubjectSignal};
-use lampwright_camera::white_balance::ResolvedWhiteBalance;
 use lampwright_camera::{CameraSensitivities, TrainingSet, WhiteBalance};
 use lampwright_color::rgb::rgb8_clamped_many;
 use lampwright_color::spectrum::SpectralIrradiance;
@@ -32,14 +30,11 @@ const DARK: f64 = 1e-12;
 
 /// The camera set up for the frame.
 pub struct CameraStage {
-    /// `None` when the main zone is dark: every subject renders black.
-    pipeline: Option<Arc<CameraPipeline>>,
-    /// The CCT the camera infers and the correction it applies, found once.
-    correction: Option<(Option<f64>, ColorCorrection)>,
-    /// One white balance for the whole frame.
-    white_balance: Option<ResolvedWhiteBalance>,
-    /// Per zone, the subjects' signals at that zone's exposure.
-    zone_signals: Vec<Vec<SubjectSignal>>,
+    /// Per zone, the subjects compared eye versus camera at that zone's
+    /// exposure (all zones converted together, then split), with one white
+    /// balance and one correction for the frame; empty when the main zone is
+    /// dark (every subject renders black).
+    zone_comparisons: Vec<Vec<SubjectComparison>>,
     figures: CameraFigures,
 }
 
@@ -198,10 +193,7 @@ impl CameraStage {
             matrix: [[0.0; 3]; 3],
         };
         let dark = |figures| CameraStage {
-            pipeline: None,
-            correction: None,
-            white_balance: None,
-            zone_signals: Vec::new(),
+            zone_comparisons: Vec::new(),
             figures,
         };
         let Some(main_zone) = zones.first() else {
@@ -249,13 +241,23 @@ impl CameraStage {
                 _ => vec![SubjectSignal::default(); n],
             })
             .collect();
+        let frame: Vec<SubjectSignal> = zone_signals.iter().flatten().copied().collect();
         let white_balance = if matches!(settings.white_balance, WhiteBalance::GreyCard { .. }) {
             pipeline.white_balance_for(&zone_signals[0])?
         } else {
-            let frame: Vec<SubjectSignal> = zone_signals.iter().flatten().copied().collect();
             pipeline.white_balance_for(&frame)?
         };
         let found = pipeline.correction_for(white_balance)?;
+        // Every zone's subjects in one batch (one pass of the vectorised
+        // CIELAB and CIEDE2000 instead of one per zone), then split by zone.
+        let mut compared = pipeline
+            .compare_signals_corrected(&frame, white_balance, found)?
+            .subjects
+            .into_iter();
+        let zone_comparisons: Vec<Vec<SubjectComparison>> = zone_signals
+            .iter()
+            .map(|z| compared.by_ref().take(z.len()).collect())
+            .collect();
         let (estimated_cct_k, correction) = found;
         let g = white_balance.gains;
         figures.wb_gains = [g.red, g.green, g.blue];
@@ -268,10 +270,7 @@ impl CameraStage {
             figures.matrix = [0, 1, 2].map(|i| [rows[i][0], rows[i][1], rows[i][2]]);
         }
         Ok(CameraStage {
-            pipeline: Some(pipeline),
-            correction: Some(found),
-            white_balance: Some(white_balance),
-            zone_signals,
+            zone_comparisons,
             figures,
         })
     }
@@ -291,27 +290,20 @@ impl CameraStage {
         subjects: &[Arc<ResolvedSubject>],
         metamers: bool,
         warnings: &mut Vec<String>,
-    ) -> Result<Rendered> {
-        let (Some(pipeline), Some(white_balance), Some(correction), Some(signals)) = (
-            &self.pipeline,
-            self.white_balance,
-            self.correction,
-            self.zone_signals.get(zone),
-        ) else {
-            return Ok(Rendered {
+    ) -> Rendered {
+        let Some(compared) = self.zone_comparisons.get(zone) else {
+            return Rendered {
                 subjects: subjects
                     .iter()
                     .enumerate()
                     .map(|(i, s)| black(plan, i, s))
                     .collect(),
                 metamers: Vec::new(),
-            });
+            };
         };
-        let comparison = pipeline.compare_signals_corrected(signals, white_balance, correction)?;
         let as_lit = plan.viewing.adaptation == Adaptation::AsLit;
         // 8-bit swatches of eye and camera for every subject at once.
-        let linear: Vec<[f64; 3]> = comparison
-            .subjects
+        let linear: Vec<[f64; 3]> = compared
             .iter()
             .flat_map(|c| {
                 let eye = if as_lit {
@@ -326,8 +318,7 @@ impl CameraStage {
             })
             .collect();
         let rgb8 = rgb8_clamped_many(&linear);
-        let results: Vec<SubjectResult> = comparison
-            .subjects
+        let results: Vec<SubjectResult> = compared
             .iter()
             .zip(subjects)
             .zip(rgb8.chunks_exact(2))
@@ -338,12 +329,12 @@ impl CameraStage {
             warnings.push("a subject's colour difference could not be computed".into());
         }
         if !metamers {
-            return Ok(Rendered {
+            return Rendered {
                 subjects: results,
                 metamers: Vec::new(),
-            });
+            };
         }
-        let m = camera_metamers(&comparison.subjects);
+        let m = camera_metamers(compared);
         let name = |i: usize| {
             subjects
                 .get(i)
@@ -362,10 +353,10 @@ impl CameraStage {
                 eye_matches,
             })
             .collect();
-        Ok(Rendered {
+        Rendered {
             subjects: results,
             metamers,
-        })
+        }
     }
 }
 
