@@ -61,8 +61,9 @@ pub struct SourceLight {
     /// Whether it lights the scene (on, and soloed when any is soloed).
     pub lit: bool,
     /// Spectral irradiance at the subject for 1 lux of the unfiltered lamp at
-    /// full output, after the dimmer's colour shift and the gels (W·m⁻²·nm⁻¹ per lux).
-    pub per_lux: SpectralIrradiance,
+    /// full output, after the dimmer's colour shift and the gels (W·m⁻²·nm⁻¹ per lux;
+    /// shared between evaluations that reuse the source).
+    pub per_lux: Arc<SpectralIrradiance>,
     /// Level at full output before gels, lux.
     pub level_lux: f64,
     /// Light output factor of the dimmer (1 at full).
@@ -129,7 +130,7 @@ pub fn source_light(plan: &Plan, source: &Source) -> Result<SourceLight> {
         name: source.name.clone(),
         role: source.role,
         lit: plan.is_lit(source),
-        per_lux,
+        per_lux: Arc::new(per_lux),
         level_lux: source.level_lux,
         dimmer_flux: resolved.lamp.flux_factor(),
         gel_transmission,
@@ -244,7 +245,7 @@ fn lit_parts(sources: &[SourceLight], parts: &[(usize, f64)]) -> Vec<(usize, f64
 }
 
 fn mix_spectrum(sources: &[SourceLight], lit: &[(usize, f64)]) -> SpectralIrradiance {
-    SpectralIrradiance::weighted_sum(lit.iter().map(|(i, w)| (*w, &sources[*i].per_lux)))
+    SpectralIrradiance::weighted_sum(lit.iter().map(|(i, w)| (*w, &*sources[*i].per_lux)))
 }
 
 /// The light-figure sums of a zone's mix; `None` when nothing is lit.

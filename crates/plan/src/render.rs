@@ -33,8 +33,9 @@ pub struct CameraStage {
     /// Per zone, the subjects compared eye versus camera at that zone's
     /// exposure (all zones converted together, then split), with one white
     /// balance and one correction for the frame; empty when the main zone is
-    /// dark (every subject renders black).
-    zone_comparisons: Vec<Vec<SubjectComparison>>,
+    /// dark (every subject renders black). Zone z holds
+    /// `compared[z·n .. (z + 1)·n]` for the plan's n subjects.
+    compared: Vec<SubjectComparison>,
     figures: CameraFigures,
 }
 
@@ -193,7 +194,7 @@ impl CameraStage {
             matrix: [[0.0; 3]; 3],
         };
         let dark = |figures| CameraStage {
-            zone_comparisons: Vec::new(),
+            compared: Vec::new(),
             figures,
         };
         let Some(main_zone) = zones.first() else {
@@ -250,14 +251,9 @@ impl CameraStage {
         let found = pipeline.correction_for(white_balance)?;
         // Every zone's subjects in one batch (one pass of the vectorised
         // CIELAB and CIEDE2000 instead of one per zone), then split by zone.
-        let mut compared = pipeline
+        let compared = pipeline
             .compare_signals_corrected(&frame, white_balance, found)?
-            .subjects
-            .into_iter();
-        let zone_comparisons: Vec<Vec<SubjectComparison>> = zone_signals
-            .iter()
-            .map(|z| compared.by_ref().take(z.len()).collect())
-            .collect();
+            .subjects;
         let (estimated_cct_k, correction) = found;
         let g = white_balance.gains;
         figures.wb_gains = [g.red, g.green, g.blue];
@@ -269,10 +265,7 @@ impl CameraStage {
         if rows.len() == 3 && rows.iter().all(|r| r.len() == 3) {
             figures.matrix = [0, 1, 2].map(|i| [rows[i][0], rows[i][1], rows[i][2]]);
         }
-        Ok(CameraStage {
-            zone_comparisons,
-            figures,
-        })
+        Ok(CameraStage { compared, figures })
     }
 
     /// The camera's figures for the frame.
@@ -291,7 +284,8 @@ impl CameraStage {
         metamers: bool,
         warnings: &mut Vec<String>,
     ) -> Rendered {
-        let Some(compared) = self.zone_comparisons.get(zone) else {
+        let n = subjects.len();
+        let Some(compared) = self.compared.get(zone * n..(zone + 1) * n) else {
             return Rendered {
                 subjects: subjects
                     .iter()
