@@ -120,14 +120,7 @@ fn bench_cam02(c: &mut Criterion) {
         b.iter(|| {
             lampwright_color::weighted_sums::weighted_sums_6(
                 black_box(&refs),
-                [
-                    &weights[0],
-                    &weights[1],
-                    &weights[2],
-                    &weights[3],
-                    &weights[4],
-                    &weights[5],
-                ],
+                std::array::from_fn(|k| weights[k].as_slice()),
             )
         });
     });
