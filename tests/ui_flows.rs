@@ -20,14 +20,25 @@ fn harness() -> Harness<'static, App> {
     harness
 }
 
+/// Click the widget with this label and let the window answer.
+fn click(harness: &mut Harness<'static, App>, label: &str) {
+    harness.get_by_label(label).click();
+    harness.run();
+}
+
+/// Press a key with modifiers (a shortcut) and let the window answer.
+fn press(harness: &mut Harness<'static, App>, modifiers: Modifiers, key: Key) {
+    harness.key_press_modifiers(modifiers, key);
+    harness.run();
+}
+
 /// Replace the text of a text field found by its label.
 fn type_into(harness: &mut Harness<'static, App>, label: &str, text: &str) {
     harness
         .get_by_role_and_label(Role::TextInput, label)
         .focus();
     harness.run();
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::A);
-    harness.run();
+    press(harness, Modifiers::COMMAND, Key::A);
     harness
         .get_by_role_and_label(Role::TextInput, label)
         .type_text(text);
@@ -92,8 +103,7 @@ fn add_a_source_then_a_gel_changes_readouts_and_delta_e() {
     let before_sources = harness.state().plan().sources.len();
     let before = harness.state().evaluation().expect("evaluation").clone();
 
-    harness.get_by_label("Add source").click();
-    harness.run();
+    click(&mut harness, "Add source");
     assert_eq!(harness.state().plan().sources.len(), before_sources + 1);
 
     // Put the first gel of the library on the new source (its card is the last).
@@ -150,8 +160,7 @@ fn undo_returns_the_exact_earlier_plan_and_redo_reapplies() {
     let mut harness = harness();
     let original = harness.state().plan().clone();
 
-    harness.get_by_label("Add source").click();
-    harness.run();
+    click(&mut harness, "Add source");
     harness
         .get_all_by_label("On")
         .next()
@@ -162,20 +171,16 @@ fn undo_returns_the_exact_earlier_plan_and_redo_reapplies() {
     assert_ne!(edited, original);
     assert_eq!(harness.state().undo_len(), 2);
 
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
-    harness.run();
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND, Key::Z);
+    press(&mut harness, Modifiers::COMMAND, Key::Z);
     assert_eq!(
         harness.state().plan(),
         &original,
         "two undos give back the opening plan"
     );
 
-    harness.key_press_modifiers(Modifiers::COMMAND | Modifiers::SHIFT, Key::Z);
-    harness.run();
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::Y);
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND | Modifiers::SHIFT, Key::Z);
+    press(&mut harness, Modifiers::COMMAND, Key::Y);
     assert_eq!(harness.state().plan(), &edited, "redo reapplies both edits");
 }
 
@@ -207,8 +212,7 @@ fn a_slider_drag_is_one_undo_step() {
         1,
         "the whole drag is one undo step"
     );
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND, Key::Z);
     assert_eq!(harness.state().plan(), &original);
 }
 
@@ -218,15 +222,12 @@ fn save_then_open_gives_the_same_plan() {
     let path = dir.path().join("shoot.ron");
     let mut harness = harness();
 
-    harness.get_by_label("Add source").click();
-    harness.run();
+    click(&mut harness, "Add source");
     let saved = harness.state().plan().clone();
 
-    harness.key_press_modifiers(Modifiers::COMMAND | Modifiers::SHIFT, Key::S);
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND | Modifiers::SHIFT, Key::S);
     type_into(&mut harness, "Path", &path.display().to_string());
-    harness.get_by_label("Save").click();
-    harness.run();
+    click(&mut harness, "Save");
     assert!(
         path.exists(),
         "plan file written; notices: {:?}",
@@ -236,16 +237,12 @@ fn save_then_open_gives_the_same_plan() {
     assert!(!harness.state().is_dirty());
 
     // Change the plan, then open the file again: the prompt guards the change.
-    harness.get_by_label("Add source").click();
-    harness.run();
+    click(&mut harness, "Add source");
     assert!(harness.state().is_dirty());
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::O);
-    harness.run();
-    harness.get_by_label("Discard changes").click();
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND, Key::O);
+    click(&mut harness, "Discard changes");
     type_into(&mut harness, "Path", &path.display().to_string());
-    harness.get_by_label("Open").click();
-    harness.run();
+    click(&mut harness, "Open");
 
     assert_eq!(
         harness.state().plan(),
@@ -258,14 +255,11 @@ fn save_then_open_gives_the_same_plan() {
 #[test]
 fn new_plan_asks_before_discarding_changes() {
     let mut harness = harness();
-    harness.get_by_label("Add source").click();
-    harness.run();
+    click(&mut harness, "Add source");
     let edited = harness.state().plan().clone();
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::N);
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND, Key::N);
     harness.get_by_label("Unsaved changes");
-    harness.get_by_label("Cancel").click();
-    harness.run();
+    click(&mut harness, "Cancel");
     assert_eq!(harness.state().plan(), &edited, "cancel keeps the plan");
 }
 
@@ -274,21 +268,17 @@ fn save_in_the_prompt_for_a_plan_without_a_file_saves_then_goes_on() {
     let dir = tempfile::tempdir().expect("temp dir");
     let path = dir.path().join("first.ron");
     let mut harness = harness();
-    harness.get_by_label("Add source").click();
-    harness.run();
+    click(&mut harness, "Add source");
     let edited = harness.state().plan().clone();
     assert!(harness.state().path().is_none() && harness.state().is_dirty());
 
     // New plan → "Save" in the prompt → choose a file → the plan is saved,
     // then the new plan opens, as the user asked before the prompt.
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::N);
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND, Key::N);
     harness.get_by_label("Unsaved changes");
-    harness.get_by_label("Save").click();
-    harness.run();
+    click(&mut harness, "Save");
     type_into(&mut harness, "Path", &path.display().to_string());
-    harness.get_by_label("Save").click();
-    harness.run();
+    click(&mut harness, "Save");
     let written = lampwright_plan::load_plan(&path).expect("the edited plan was saved");
     assert_eq!(written, edited, "the file holds the plan as it was edited");
     assert_eq!(
@@ -299,15 +289,11 @@ fn save_in_the_prompt_for_a_plan_without_a_file_saves_then_goes_on() {
     assert!(harness.state().path().is_none() && !harness.state().is_dirty());
 
     // Cancelling the file browser cancels the whole request: nothing opens.
-    harness.get_by_label("Add source").click();
-    harness.run();
+    click(&mut harness, "Add source");
     let edited = harness.state().plan().clone();
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::N);
-    harness.run();
-    harness.get_by_label("Save").click();
-    harness.run();
-    harness.get_by_label("Cancel").click();
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND, Key::N);
+    click(&mut harness, "Save");
+    click(&mut harness, "Cancel");
     assert_eq!(harness.state().plan(), &edited, "cancel keeps the plan");
     assert!(harness.state().is_dirty());
 }
@@ -322,8 +308,7 @@ fn a_malformed_csv_shows_an_error_and_changes_nothing() {
 
     drop_file(&mut harness, &path);
     harness.get_by_label("Import a spectral table");
-    harness.get_by_label("Add to plan").click();
-    harness.run();
+    click(&mut harness, "Add to plan");
 
     assert_eq!(harness.state().plan(), &before, "nothing changed");
     let notice = harness.state().notices().last().expect("a message");
@@ -370,8 +355,7 @@ fn a_plan_that_cannot_be_evaluated_shows_a_banner_and_keeps_the_last_figures() {
     );
     harness.get_by_label("This plan cannot be evaluated");
     // Undo clears the error.
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND, Key::Z);
     assert!(harness.state().evaluation_error().is_none());
 }
 
@@ -380,15 +364,12 @@ fn swatch_sheet_exports_as_png() {
     let dir = tempfile::tempdir().expect("temp dir");
     let path = dir.path().join("sheet.png");
     let mut harness = harness();
-    harness.get_by_label("File").click();
-    harness.run();
+    click(&mut harness, "File");
     harness.get_by_label("Export").hover();
     harness.run();
-    harness.get_by_label("Swatch sheet (PNG)…").click();
-    harness.run();
+    click(&mut harness, "Swatch sheet (PNG)…");
     type_into(&mut harness, "Path", &path.display().to_string());
-    harness.get_by_label("Export").click();
-    harness.run();
+    click(&mut harness, "Export");
     let img = image::open(&path).expect("a PNG was written").to_rgb8();
     let eval = harness.state().evaluation().expect("evaluation");
     let first = eval.subjects[0].eye_rgb8;
@@ -401,8 +382,7 @@ fn swatch_sheet_exports_as_png() {
 #[test]
 fn new_plan_starts_with_a_key_and_a_grey_card_and_evaluates() {
     let mut harness = harness();
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::N);
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND, Key::N);
     let app = harness.state();
     assert_eq!(app.plan().sources.len(), 1);
     assert!(!app.plan().subjects.is_empty());
@@ -423,15 +403,12 @@ fn report_exports_as_html_through_the_plan_crate() {
     let dir = tempfile::tempdir().expect("temp dir");
     let path = dir.path().join("report.html");
     let mut harness = harness();
-    harness.get_by_label("File").click();
-    harness.run();
+    click(&mut harness, "File");
     harness.get_by_label("Export").hover();
     harness.run();
-    harness.get_by_label("Report (HTML)…").click();
-    harness.run();
+    click(&mut harness, "Report (HTML)…");
     type_into(&mut harness, "Path", &path.display().to_string());
-    harness.get_by_label("Export").click();
-    harness.run();
+    click(&mut harness, "Export");
     let html = std::fs::read_to_string(&path).expect("report written");
     let plan_name = harness.state().plan().name.clone();
     assert!(
@@ -455,10 +432,8 @@ fn importing_a_good_subject_csv_adds_a_subject_and_undo_removes_it() {
     let before = harness.state().plan().clone();
 
     drop_file(&mut harness, &path);
-    harness.get_by_label("Subject (reflectance)").click();
-    harness.run();
-    harness.get_by_label("Add to plan").click();
-    harness.run();
+    click(&mut harness, "Subject (reflectance)");
+    click(&mut harness, "Add to plan");
 
     let app = harness.state();
     assert_eq!(
@@ -481,8 +456,7 @@ fn importing_a_good_subject_csv_adds_a_subject_and_undo_removes_it() {
         eval.subjects.iter().any(|r| &*r.name == "swatch"),
         "named after the file"
     );
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND, Key::Z);
     assert_eq!(harness.state().plan(), &before);
 }
 
@@ -491,15 +465,13 @@ fn the_advisor_runs_in_the_background_and_a_suggestion_applies_as_one_undo_step(
     let mut harness = harness();
     let original = harness.state().plan().clone();
     let original_rf = harness.state().evaluation().and_then(|e| e.light.tm30_rf);
-    harness.get_by_label("Advisor").click();
-    harness.run();
+    click(&mut harness, "Advisor");
     // The café demo is already close for camera fidelity; rendering quality has room.
     harness
         .get_by_role_and_label(Role::ComboBox, "Goal")
         .click();
     harness.run();
-    harness.get_by_label("Rendering quality (TM-30)").click();
-    harness.run();
+    click(&mut harness, "Rendering quality (TM-30)");
     harness.get_by_label("Suggest changes").click();
     let started = Instant::now();
     while harness.query_by_label("Apply 1").is_none()
@@ -522,8 +494,7 @@ fn the_advisor_runs_in_the_background_and_a_suggestion_applies_as_one_undo_step(
         harness.state().notices()
     );
     {
-        harness.get_by_label("Apply 1").click();
-        harness.run();
+        click(&mut harness, "Apply 1");
         assert_ne!(
             harness.state().plan(),
             &original,
@@ -542,8 +513,7 @@ fn the_advisor_runs_in_the_background_and_a_suggestion_applies_as_one_undo_step(
         );
         // The answer now belongs to an earlier plan: it can no longer be applied.
         harness.get_by_label_contains("earlier version of the plan");
-        harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
-        harness.run();
+        press(&mut harness, Modifiers::COMMAND, Key::Z);
         assert_eq!(harness.state().plan(), &original);
     }
 }
@@ -557,8 +527,7 @@ fn every_demo_plan_opens_from_the_menu_and_evaluates() {
         .collect();
     assert!(names.len() >= 3, "three demo plans");
     for name in &names {
-        harness.get_by_label("File").click();
-        harness.run();
+        click(&mut harness, "File");
         harness.get_by_label("Open a demo plan").hover();
         harness.run();
         harness.get_by_role_and_label(Role::Button, name).click();
@@ -584,23 +553,19 @@ fn the_kit_gel_list_is_edited_in_the_advisor_panel() {
     let mut harness = harness();
     // The café demo's kit lists six gels.
     assert_eq!(harness.state().plan().kit.gels.len(), 6);
-    harness.get_by_label("Advisor").click();
-    harness.run();
+    click(&mut harness, "Advisor");
     harness
         .get_by_label_contains("The kit: 6 gels from the library")
         .click();
     harness.run();
     // Take the ND 0.3 off the truck: one undo step, the rest stays.
-    harness.get_by_label("ND 0.3 (one stop)").click();
-    harness.run();
+    click(&mut harness, "ND 0.3 (one stop)");
     let kit = &harness.state().plan().kit;
     assert_eq!(kit.gels.len(), 5);
     assert!(!kit.gels.iter().any(|g| g == "nd-03"));
-    harness.key_press_modifiers(Modifiers::COMMAND, Key::Z);
-    harness.run();
+    press(&mut harness, Modifiers::COMMAND, Key::Z);
     assert!(harness.state().plan().kit.gels.iter().any(|g| g == "nd-03"));
     // Every gel in the library: an empty list, as plan files say it.
-    harness.get_by_label("Every gel in the library").click();
-    harness.run();
+    click(&mut harness, "Every gel in the library");
     assert!(harness.state().plan().kit.gels.is_empty());
 }
