@@ -64,6 +64,32 @@ fn bench(c: &mut Criterion) {
         &mut profiled,
         key,
     );
+    let mut single = cafe();
+    single.zones.clear();
+    single.camera.matrix = MatrixMode::SceneProfile;
+    evaluate(&single).expect("evaluates");
+    c.bench_function("evaluate café one zone, scene profile", |b| {
+        b.iter(|| evaluate(black_box(&single)).expect("evaluates"));
+    });
+    let mut engine_single = Evaluator::new();
+    engine_single.evaluate(&single).expect("evaluates");
+    level_sweep(
+        c,
+        "evaluator: café one zone, scene profile, key change",
+        &mut engine_single,
+        &mut single,
+        key,
+    );
+    single.camera.matrix = MatrixMode::Factory;
+    let mut engine_single_f = Evaluator::new();
+    engine_single_f.evaluate(&single).expect("evaluates");
+    level_sweep(
+        c,
+        "evaluator: café one zone, factory, key change",
+        &mut engine_single_f,
+        &mut single,
+        key,
+    );
     c.bench_function("evaluator: café demo after a white-balance change", |b| {
         let mut k = 0u32;
         b.iter(|| {
