@@ -31,7 +31,7 @@
 use crate::correction::{ColorCorrection, FitData, FitMethod, fit_color_correction};
 use crate::error::Result;
 use crate::raw::{SceneResponse, SubjectSignal};
-use crate::sensitivities::CameraSensitivities;
+use crate::sensitivities::{CameraSensitivities, SharedCamera};
 use crate::training::TrainingSet;
 use crate::white_balance::WbGains;
 use lampwright_color::adaptation::{Cat, apply_matrix, chromatic_adaptation_matrix};
@@ -162,8 +162,34 @@ pub fn calibrated_correction(
     method: FitMethod,
     training: &TrainingSet,
 ) -> Result<Arc<ColorCorrection>> {
+    calibrated_correction_of(camera, camera.fingerprint(), light, method, training)
+}
+
+/// [`calibrated_correction`] of a camera already fingerprinted.
+pub(crate) fn calibrated_correction_shared(
+    camera: &SharedCamera,
+    light: CalibrationLight,
+    method: FitMethod,
+    training: &TrainingSet,
+) -> Result<Arc<ColorCorrection>> {
+    calibrated_correction_of(
+        camera.curves(),
+        camera.fingerprint(),
+        light,
+        method,
+        training,
+    )
+}
+
+fn calibrated_correction_of(
+    camera: &CameraSensitivities,
+    fingerprint: u64,
+    light: CalibrationLight,
+    method: FitMethod,
+    training: &TrainingSet,
+) -> Result<Arc<ColorCorrection>> {
     let key = CacheKey {
-        camera: camera.fingerprint(),
+        camera: fingerprint,
         training: training.fingerprint(),
         method,
         light,

@@ -42,6 +42,6 @@ pub use pipeline::{
     CameraPipeline, CameraSettings, Comparison, SubjectComparison, camera_metamers,
 };
 pub use raw::{SceneResponse, SignalSums, SubjectSignal, raw_signal};
-pub use sensitivities::CameraSensitivities;
+pub use sensitivities::{CameraSensitivities, SharedCamera};
 pub use training::TrainingSet;
 pub use white_balance::{WbGains, WbPreset, WhiteBalance};

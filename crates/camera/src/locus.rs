@@ -17,7 +17,7 @@
 
 use crate::error::{CameraError, Result};
 use crate::raw::raw_of_light;
-use crate::sensitivities::CameraSensitivities;
+use crate::sensitivities::{CameraSensitivities, SharedCamera};
 use crate::white_balance::white_balance_light;
 use std::collections::HashMap;
 use std::sync::{Arc, LazyLock, Mutex, PoisonError};
@@ -78,7 +78,15 @@ impl CameraLocus {
 
     /// The locus of `camera`, computed once per set of curves and kept for the run.
     pub fn for_camera(camera: &CameraSensitivities) -> Result<Arc<CameraLocus>> {
-        let key = camera.fingerprint();
+        CameraLocus::for_shared_curves(camera, camera.fingerprint())
+    }
+
+    /// [`CameraLocus::for_camera`] of a camera already fingerprinted.
+    pub(crate) fn for_shared(camera: &SharedCamera) -> Result<Arc<CameraLocus>> {
+        CameraLocus::for_shared_curves(camera.curves(), camera.fingerprint())
+    }
+
+    fn for_shared_curves(camera: &CameraSensitivities, key: u64) -> Result<Arc<CameraLocus>> {
         if let Some(hit) = LOCUS_CACHE
             .lock()
             .unwrap_or_else(PoisonError::into_inner)

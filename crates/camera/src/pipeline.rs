@@ -22,7 +22,7 @@
 //! - See [`crate::calibration`], [`crate::white_balance`] for the camera steps.
 
 use crate::calibration::{
-    CalibrationLight, MatrixMode, calibrated_correction, calibration_data_from_signals,
+    CalibrationLight, MatrixMode, calibrated_correction_shared, calibration_data_from_signals,
     cat16_to_d65, d65_white, dual_illuminant_weight, fit_under_light,
 };
 use crate::correction::{ColorCorrection, DeltaEStats, FitMethod, fit_color_correction};
@@ -30,7 +30,7 @@ use crate::display::{DisplayColor, DisplaySpace, DisplayTransform};
 use crate::error::{CameraError, Result};
 use crate::locus::CameraLocus;
 use crate::raw::{SceneResponse, SubjectSignal};
-use crate::sensitivities::CameraSensitivities;
+use crate::sensitivities::{CameraSensitivities, SharedCamera};
 use crate::training::TrainingSet;
 use crate::white_balance::{ResolvedWhiteBalance, WhiteBalance, resolve_white_balance};
 use lampwright_color::adaptation::apply_matrix;
@@ -116,7 +116,7 @@ enum Corrections {
 /// A camera set up under one scene light, ready to compare subjects.
 #[derive(Debug, Clone)]
 pub struct CameraPipeline {
-    camera: CameraSensitivities,
+    camera: SharedCamera,
     settings: CameraSettings,
     /// Light × curves, when set up from the light's spectrum.
     scene: Option<SceneResponse>,
@@ -153,7 +153,8 @@ impl CameraPipeline {
             None
         };
         let white = scene.white();
-        CameraPipeline::set_up(camera, settings, Some(scene), white, profile, training)
+        let shared = SharedCamera::from(camera.clone());
+        CameraPipeline::set_up(&shared, settings, Some(scene), white, profile, training)
     }
 
     /// Set up `camera` from signals already integrated under the scene light
@@ -164,7 +165,7 @@ impl CameraPipeline {
     /// that light up to rounding. A pipeline set up this way compares
     /// signals only ([`CameraPipeline::compare`] refuses reflectances).
     pub fn from_signals(
-        camera: &CameraSensitivities,
+        camera: &SharedCamera,
         settings: &CameraSettings,
         scene_white: SubjectSignal,
         training_signals: Option<&[SubjectSignal]>,
@@ -193,20 +194,20 @@ impl CameraPipeline {
     }
 
     fn set_up(
-        camera: &CameraSensitivities,
+        camera: &SharedCamera,
         settings: &CameraSettings,
         scene: Option<SceneResponse>,
         scene_white: SubjectSignal,
         profile: Option<Arc<ColorCorrection>>,
         training: &TrainingSet,
     ) -> Result<CameraPipeline> {
-        let locus = CameraLocus::for_camera(camera)?;
+        let locus = CameraLocus::for_shared(camera)?;
         let fixed_white_balance = if settings.white_balance.depends_on_subjects() {
             None
         } else {
             Some(resolve_white_balance(
                 &settings.white_balance,
-                camera,
+                camera.curves(),
                 scene_white.raw_rgb,
                 &[],
             )?)
@@ -215,10 +216,10 @@ impl CameraPipeline {
         let corrections = match (settings.matrix_mode, profile) {
             (MatrixMode::SceneProfile, Some(p)) => Corrections::Single(p),
             (MatrixMode::DualIlluminant, _) => Corrections::Dual {
-                a: calibrated_correction(camera, CalibrationLight::A, method, training)?,
-                d65: calibrated_correction(camera, CalibrationLight::D65, method, training)?,
+                a: calibrated_correction_shared(camera, CalibrationLight::A, method, training)?,
+                d65: calibrated_correction_shared(camera, CalibrationLight::D65, method, training)?,
             },
-            _ => Corrections::Single(calibrated_correction(
+            _ => Corrections::Single(calibrated_correction_shared(
                 camera,
                 CalibrationLight::D65,
                 method,
@@ -278,7 +279,7 @@ impl CameraPipeline {
             Some(wb) => Ok(wb),
             None => resolve_white_balance(
                 &self.settings.white_balance,
-                &self.camera,
+                self.camera.curves(),
                 self.scene_white.raw_rgb,
                 frame,
             ),
@@ -487,7 +488,7 @@ mod tests {
                 .compare(&subjects)
                 .unwrap();
             let p = CameraPipeline::from_signals(
-                &cam,
+                &SharedCamera::from(cam.clone()),
                 &settings,
                 subject_sums.white_signal(),
                 Some(&training_sums.signals(scale)),
@@ -511,8 +512,9 @@ mod tests {
             ..CameraSettings::default()
         };
         let white = subject_sums.white_signal();
-        assert!(CameraPipeline::from_signals(&cam, &profile, white, None, t).is_err());
-        assert!(CameraPipeline::from_signals(&cam, &profile, white, Some(&[white]), t).is_err());
+        let shared = SharedCamera::from(cam.clone());
+        assert!(CameraPipeline::from_signals(&shared, &profile, white, None, t).is_err());
+        assert!(CameraPipeline::from_signals(&shared, &profile, white, Some(&[white]), t).is_err());
     }
 
     #[test]

@@ -12,7 +12,7 @@ use lampwright_color::observer::Observer;
 use lampwright_color::table::AssetTable;
 use lampwright_color::{Coverage, GRID_LEN, Sensitivity};
 use std::hash::{Hash, Hasher};
-use std::sync::LazyLock;
+use std::sync::{Arc, LazyLock};
 
 /// Spectral sensitivities of the three channels of one camera.
 #[derive(Debug, Clone, PartialEq)]
@@ -177,6 +177,49 @@ impl CameraSensitivities {
     }
 }
 
+/// A camera's curves behind an `Arc`, fingerprinted once.
+///
+/// The run-wide caches (locus, calibrated corrections) are keyed by
+/// [`CameraSensitivities::fingerprint`]; a camera set up again and again under
+/// changing light (a plan being edited) computes it here once instead of on
+/// every set-up. The curves cannot change behind the fingerprint: they are
+/// only reachable through a shared reference.
+#[derive(Debug, Clone)]
+pub struct SharedCamera {
+    curves: Arc<CameraSensitivities>,
+    fingerprint: u64,
+}
+
+impl SharedCamera {
+    /// Share `curves` and fingerprint them.
+    #[must_use]
+    pub fn new(curves: Arc<CameraSensitivities>) -> SharedCamera {
+        let fingerprint = curves.fingerprint();
+        SharedCamera {
+            curves,
+            fingerprint,
+        }
+    }
+
+    /// The curves.
+    #[must_use]
+    pub fn curves(&self) -> &CameraSensitivities {
+        &self.curves
+    }
+
+    /// [`CameraSensitivities::fingerprint`] of the curves.
+    #[must_use]
+    pub fn fingerprint(&self) -> u64 {
+        self.fingerprint
+    }
+}
+
+impl From<CameraSensitivities> for SharedCamera {
+    fn from(curves: CameraSensitivities) -> SharedCamera {
+        SharedCamera::new(Arc::new(curves))
+    }
+}
+
 /// Parse a demo camera table: columns named `<camera>|R`, `<camera>|G`, `<camera>|B`.
 fn parse_demo_table(file: &str, text: &str) -> Result<Vec<CameraSensitivities>> {
     let table = AssetTable::parse(file, text)?;
@@ -318,5 +361,9 @@ mod tests {
         assert_eq!(a.fingerprint(), b.fingerprint());
         b.r = b.r.scaled(2.0);
         assert_ne!(a.fingerprint(), b.fingerprint());
+        // A shared camera keeps its curves' fingerprint, taken once.
+        let shared = SharedCamera::from(b.clone());
+        assert_eq!(shared.fingerprint(), b.fingerprint());
+        assert_eq!(shared.curves().r, b.r);
     }
 }

@@ -26,7 +26,7 @@ use crate::model::{Plan, Source, SourceId, SourceRole, ZoneLevel};
 use crate::render::{CameraStage, ZoneLight};
 use crate::resolve;
 use lampwright_camera::raw::SignalSums;
-use lampwright_camera::{CameraSensitivities, TrainingSet};
+use lampwright_camera::{CameraSensitivities, SharedCamera, TrainingSet};
 use lampwright_color::cct::{CctDuv, mired};
 use lampwright_color::light_sums::LightSums;
 use lampwright_color::observer::{Observer, v_lambda};
@@ -417,7 +417,7 @@ pub struct Evaluator {
     camera_cache: crate::render::CameraCache,
     subject_sums: VecDeque<SubjectSumsEntry>,
     resolved_subjects: Vec<(crate::model::SubjectRef, Arc<resolve::ResolvedSubject>)>,
-    resolved_camera: Option<(CameraRef, Arc<CameraSensitivities>)>,
+    resolved_camera: Option<(CameraRef, SharedCamera)>,
     training_sums: VecDeque<(SourceKey, CameraRef, Arc<SignalSums>)>,
     hits: u64,
     misses: u64,
@@ -558,16 +558,16 @@ impl Evaluator {
     }
 
     /// The plan's camera resolved.
-    fn camera(&mut self, plan: &Plan) -> Result<Arc<CameraSensitivities>> {
+    fn camera(&mut self, plan: &Plan) -> Result<SharedCamera> {
         if let Some((r, c)) = &self.resolved_camera
             && *r == plan.camera.camera
         {
             self.hits += 1;
-            return Ok(Arc::clone(c));
+            return Ok(c.clone());
         }
         self.misses += 1;
-        let camera = Arc::new(resolve::camera_sensitivities(plan, &plan.camera.camera)?);
-        self.resolved_camera = Some((plan.camera.camera.clone(), Arc::clone(&camera)));
+        let camera = SharedCamera::from(resolve::camera_sensitivities(plan, &plan.camera.camera)?);
+        self.resolved_camera = Some((plan.camera.camera.clone(), camera.clone()));
         Ok(camera)
     }
 
@@ -652,7 +652,7 @@ impl Evaluator {
         subjects: &[Arc<resolve::ResolvedSubject>],
     ) -> Result<CameraStage> {
         let camera_sens = self.camera(plan)?;
-        let quality = self.camera_quality(plan, &camera_sens)?;
+        let quality = self.camera_quality(plan, camera_sens.curves())?;
         // Each lit source's subject sums (and training sums for a scene
         // profile in the main zone), mixed per zone.
         let mut per_source: Vec<Option<Arc<SignalSums>>> = vec![None; sources.len()];
@@ -663,7 +663,7 @@ impl Evaluator {
                         plan,
                         &plan.sources[*i],
                         &sources[*i],
-                        &camera_sens,
+                        camera_sens.curves(),
                         subjects,
                     ));
                 }
@@ -684,7 +684,12 @@ impl Evaluator {
             for (i, w) in lit.first().map_or(&[][..], Vec::as_slice) {
                 parts.push((
                     *w,
-                    self.training_sums(plan, &plan.sources[*i], &sources[*i], &camera_sens)?,
+                    self.training_sums(
+                        plan,
+                        &plan.sources[*i],
+                        &sources[*i],
+                        camera_sens.curves(),
+                    )?,
                 ));
             }
             let refs: Vec<(f64, &SignalSums)> = parts.iter().map(|(w, s)| (*w, &**s)).collect();

@@ -20,7 +20,7 @@ use lampwright_camera::pipeline::{
 };
 use lampwright_camera::quality::luther_and_mu;
 use lampwright_camera::raw::{SignalSums, SubjectSignal};
-use lampwright_camera::{CameraSensitivities, TrainingSet, WhiteBalance};
+use lampwright_camera::{CameraSensitivities, SharedCamera, TrainingSet, WhiteBalance};
 use lampwright_color::rgb::rgb8_clamped_many;
 use lampwright_color::spectrum::SpectralIrradiance;
 use std::sync::Arc;
@@ -168,13 +168,14 @@ impl CameraStage {
     /// evaluations (pass a new one to set up afresh).
     pub fn new(
         plan: &Plan,
-        camera: &CameraSensitivities,
+        shared: &SharedCamera,
         quality: CameraQuality,
         zones: &[ZoneLight<'_>],
         main_training: Option<&SignalSums>,
         cache: &mut CameraCache,
     ) -> Result<CameraStage> {
         let settings = camera_settings(plan);
+        let camera = shared.curves();
         let shown = match &cache.shown_curves {
             Some((r, curves)) if *r == plan.camera.camera => Arc::clone(curves),
             _ => {
@@ -217,7 +218,7 @@ impl CameraStage {
         } else {
             let training = main_training.map(|t| t.signals(main_scale));
             let p = Arc::new(CameraPipeline::from_signals(
-                camera,
+                shared,
                 &settings,
                 main_sums.white_signal(),
                 training.as_deref(),
