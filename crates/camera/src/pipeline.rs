@@ -411,16 +411,18 @@ pub fn camera_metamers(subjects: &[SubjectComparison]) -> CameraMetamers {
     // A pair matters only when one viewer sees a match (ΔE00 below the match
     // threshold); pairs whose lightness alone puts both differences at or
     // above it are screened out, and the rest are measured together.
+    let eye: Vec<Lab> = subjects.iter().map(|s| s.eye_lab).collect();
+    let camera: Vec<Lab> = subjects.iter().map(|s| s.camera_lab).collect();
     let mut candidates = Vec::new();
-    for (i, a) in subjects.iter().enumerate() {
-        for (j, b) in subjects.iter().enumerate().skip(i + 1) {
-            if !(ciede2000_surely_at_least(a.eye_lab, b.eye_lab, METAMER_MATCH_DE)
-                && ciede2000_surely_at_least(a.camera_lab, b.camera_lab, METAMER_MATCH_DE))
-            {
+    for labs in [&eye, &camera] {
+        for (i, j) in lightness_neighbours(labs, METAMER_MATCH_DE) {
+            if !ciede2000_surely_at_least(labs[i], labs[j], METAMER_MATCH_DE) {
                 candidates.push((i, j));
             }
         }
     }
+    candidates.sort_unstable();
+    candidates.dedup();
     let pairs: Vec<(Lab, Lab)> = candidates
         .iter()
         .flat_map(|&(i, j)| {
@@ -441,6 +443,33 @@ pub fn camera_metamers(subjects: &[SubjectComparison]) -> CameraMetamers {
             out.eye_matches_camera_splits.push(pair);
         } else if pair.delta_e_camera < METAMER_MATCH_DE && pair.delta_e_eye > METAMER_DIFFER_DE {
             out.camera_matches_eye_splits.push(pair);
+        }
+    }
+    out
+}
+
+/// The pairs `(i, j)`, `i < j`, that [`ciede2000_surely_at_least`] might not
+/// rule out at `threshold`: those whose lightness differs by less than the
+/// screen's widest bound over these colours, found by sorting on L* instead
+/// of trying every pair. All pairs when some lightness is not finite.
+fn lightness_neighbours(labs: &[Lab], threshold: f64) -> Vec<(usize, usize)> {
+    let n = labs.len();
+    let farthest = labs.iter().map(|c| (c.l - 50.0).abs()).fold(0.0, f64::max);
+    let window = threshold * (1.0 + 0.015 * farthest) * (1.0 + 1e-12);
+    if !(window.is_finite() && labs.iter().all(|c| c.l.is_finite())) {
+        return (0..n)
+            .flat_map(|i| (i + 1..n).map(move |j| (i, j)))
+            .collect();
+    }
+    let mut order: Vec<usize> = (0..n).collect();
+    order.sort_unstable_by(|&a, &b| labs[a].l.total_cmp(&labs[b].l));
+    let mut out = Vec::new();
+    for (k, &a) in order.iter().enumerate() {
+        for &b in &order[k + 1..] {
+            if labs[b].l - labs[a].l >= window {
+                break;
+            }
+            out.push((a.min(b), a.max(b)));
         }
     }
     out
@@ -678,6 +707,35 @@ mod tests {
                 assert!((g.delta_e_camera - w.delta_e_camera).abs() < 1e-12);
             }
         }
+    }
+
+    #[test]
+    fn lightness_window_keeps_every_pair_the_screen_might_pass() {
+        let mut seed = 0x9E37_79B9_7F4A_7C15u64;
+        let mut next = || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            (seed >> 11) as f64 / (1u64 << 53) as f64
+        };
+        // Lightness beyond 0–100 too (bright camera renderings), in clusters.
+        let labs: Vec<Lab> = (0..80)
+            .map(|i| Lab::new(-10.0 + 14.0 * f64::from(i % 10) + 2.0 * next(), 0.0, 0.0))
+            .collect();
+        let kept = lightness_neighbours(&labs, METAMER_MATCH_DE);
+        let mut might = 0;
+        for i in 0..labs.len() {
+            for j in i + 1..labs.len() {
+                if !ciede2000_surely_at_least(labs[i], labs[j], METAMER_MATCH_DE) {
+                    might += 1;
+                    assert!(kept.contains(&(i, j)), "pair ({i}, {j}) dropped");
+                }
+            }
+        }
+        assert!(might > 0 && kept.len() < labs.len() * (labs.len() - 1) / 2);
+        let mut bad = labs[..4].to_vec();
+        bad[2].l = f64::NAN;
+        assert_eq!(lightness_neighbours(&bad, METAMER_MATCH_DE).len(), 6);
     }
 
     #[test]
