@@ -417,6 +417,14 @@ pub(crate) fn ces_set() -> Result<&'static SampleSet> {
     CES_SET.as_ref().map_err(Clone::clone)
 }
 
+/// Sine and cosine of each hue bin's middle angle, 22.5°·j + 11.25°.
+static BIN_MID_SIN_COS: LazyLock<[[f64; 2]; TM30_BINS]> = LazyLock::new(|| {
+    std::array::from_fn(|j| {
+        let (s, c) = (22.5 * j as f64 + 11.25).to_radians().sin_cos();
+        [s, c]
+    })
+});
+
 /// TM-30 from the test light's CES sums (a light already checked as
 /// colorimetric) whose CCT is `cct`.
 pub(crate) fn tm30_of_sums(test: &SampleXyz, cct: CctDuv) -> Result<Tm30> {
@@ -440,7 +448,6 @@ fn tm30_from_jab(
         .collect();
     let mean_de = de.iter().sum::<f64>() / de.len() as f64;
     let rf = rf_from_delta_e(mean_de);
-    let rf_ces = rf_from_delta_e_many(&de);
 
     let mut hues: Vec<f64> = jab_r.iter().map(|r| r[2]).collect();
     let a: Vec<f64> = jab_r.iter().map(|r| r[1]).collect();
@@ -467,10 +474,15 @@ fn tm30_from_jab(
             j + 1
         )));
     }
+    // Rf of every sample and of every bin in one vectorised pass.
+    let mut de_all = de;
+    de_all.extend((0..TM30_BINS).map(|j| sum_de[j] / count[j] as f64));
+    let mut rf_all = rf_from_delta_e_many(&de_all);
+    let rf_bins = rf_all.split_off(jab_t.len());
     let mut out = Tm30 {
         rf,
         rg: 0.0,
-        rf_ces,
+        rf_ces: rf_all,
         ces_reference_hue_deg: hues,
         rf_hj: [0.0; TM30_BINS],
         rcs_hj: [0.0; TM30_BINS],
@@ -487,9 +499,8 @@ fn tm30_from_jab(
         let ar = [sum_r[j][0] / n, sum_r[j][1] / n];
         out.bin_test_ab[j] = at;
         out.bin_reference_ab[j] = ar;
-        out.rf_hj[j] = rf_from_delta_e(sum_de[j] / n);
-        let theta = (22.5 * j as f64 + 11.25).to_radians();
-        let (s, c) = theta.sin_cos();
+        out.rf_hj[j] = rf_bins[j];
+        let [s, c] = BIN_MID_SIN_COS[j];
         let norm = ar[0].hypot(ar[1]);
         let (da, db) = (at[0] - ar[0], at[1] - ar[1]);
         out.rcs_hj[j] = 100.0 * (da * c + db * s) / norm;
