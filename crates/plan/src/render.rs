@@ -162,7 +162,7 @@ impl CameraStage {
     /// zone's exposure, as a camera meters the whole frame; a grey card is
     /// read where the key light is, in the main zone.
     ///
-    /// `camera` and `quality` are the plan's camera and its quality figures;
+    /// `shared` and `quality` are the plan's camera and its quality figures;
     /// `main_training` the training samples' sums under the main light
     /// (needed for a scene profile); `cache` keeps pipelines between
     /// evaluations (pass a new one to set up afresh).
