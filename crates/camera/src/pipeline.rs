@@ -645,17 +645,21 @@ mod tests {
         }
     }
 
-    #[test]
-    fn screened_metamer_search_finds_what_checking_every_pair_finds() {
-        // Colours in tight clusters (near matches for one viewer or both) and
-        // spread over lightness, so that screening skips most pairs.
-        let mut seed = 0x2545_F491_4F6C_DD1Du64;
-        let mut next = || {
+    /// A reproducible stream of numbers in [0, 1) (xorshift64).
+    fn uniform(mut seed: u64) -> impl FnMut() -> f64 {
+        move || {
             seed ^= seed << 13;
             seed ^= seed >> 7;
             seed ^= seed << 17;
             (seed >> 11) as f64 / (1u64 << 53) as f64
-        };
+        }
+    }
+
+    #[test]
+    fn screened_metamer_search_finds_what_checking_every_pair_finds() {
+        // Colours in tight clusters (near matches for one viewer or both) and
+        // spread over lightness, so that screening skips most pairs.
+        let mut next = uniform(0x2545_F491_4F6C_DD1Du64);
         let subjects: Vec<SubjectComparison> = (0..60)
             .map(|i| {
                 let l = 20.0 + 6.0 * f64::from(i % 12);
@@ -711,13 +715,7 @@ mod tests {
 
     #[test]
     fn lightness_window_keeps_every_pair_the_screen_might_pass() {
-        let mut seed = 0x9E37_79B9_7F4A_7C15u64;
-        let mut next = || {
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            (seed >> 11) as f64 / (1u64 << 53) as f64
-        };
+        let mut next = uniform(0x9E37_79B9_7F4A_7C15u64);
         // Lightness beyond 0–100 too (bright camera renderings), in clusters.
         let labs: Vec<Lab> = (0..80)
             .map(|i| Lab::new(-10.0 + 14.0 * f64::from(i % 10) + 2.0 * next(), 0.0, 0.0))

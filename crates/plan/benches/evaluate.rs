@@ -51,42 +51,32 @@ fn bench(c: &mut Criterion) {
     // main zone's light, so a key level change refits it.
     let mut profiled = cafe();
     profiled.camera.matrix = MatrixMode::SceneProfile;
-    evaluate(&profiled).expect("the café demo evaluates with a scene profile");
-    c.bench_function("evaluate café demo, scene profile", |b| {
-        b.iter(|| evaluate(black_box(&profiled)).expect("evaluates"));
-    });
-    let mut engine_profiled = Evaluator::new();
-    engine_profiled.evaluate(&profiled).expect("evaluates");
-    level_sweep(
+    fresh_and_after_level_change(
         c,
+        "evaluate café demo, scene profile",
         "evaluator: café demo, scene profile, after one key level change",
-        &mut engine_profiled,
         &mut profiled,
         key,
     );
+    // The same plan as one zone: every enabled source at its own level on
+    // one set of subjects (its sources, gels, subjects and camera as one mix).
     let mut single = cafe();
     single.zones.clear();
     single.camera.matrix = MatrixMode::SceneProfile;
-    evaluate(&single).expect("evaluates");
-    c.bench_function("evaluate café one zone, scene profile", |b| {
-        b.iter(|| evaluate(black_box(&single)).expect("evaluates"));
-    });
-    let mut engine_single = Evaluator::new();
-    engine_single.evaluate(&single).expect("evaluates");
-    level_sweep(
+    fresh_and_after_level_change(
         c,
+        "evaluate café one zone, scene profile",
         "evaluator: café one zone, scene profile, key change",
-        &mut engine_single,
         &mut single,
         key,
     );
     single.camera.matrix = MatrixMode::Factory;
-    let mut engine_single_f = Evaluator::new();
-    engine_single_f.evaluate(&single).expect("evaluates");
+    let mut engine_single = Evaluator::new();
+    engine_single.evaluate(&single).expect("evaluates");
     level_sweep(
         c,
         "evaluator: café one zone, factory, key change",
-        &mut engine_single_f,
+        &mut engine_single,
         &mut single,
         key,
     );
@@ -99,6 +89,24 @@ fn bench(c: &mut Criterion) {
             engine.evaluate(black_box(&changed)).expect("evaluates")
         });
     });
+}
+
+/// Time a fresh `evaluate` of `plan` (as `fresh`), then a new evaluator
+/// re-evaluating it after each change of source `index`'s level (as `sweep`).
+fn fresh_and_after_level_change(
+    c: &mut Criterion,
+    fresh: &str,
+    sweep: &str,
+    plan: &mut Plan,
+    index: usize,
+) {
+    evaluate(plan).expect("the plan evaluates");
+    c.bench_function(fresh, |b| {
+        b.iter(|| evaluate(black_box(&*plan)).expect("evaluates"));
+    });
+    let mut engine = Evaluator::new();
+    engine.evaluate(plan).expect("evaluates");
+    level_sweep(c, sweep, &mut engine, plan, index);
 }
 
 /// Time `engine` re-evaluating `plan` after each change of source `index`'s
